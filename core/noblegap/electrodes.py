@@ -1,0 +1,154 @@
+"""Reference electrodes: converting a potential between scales.
+
+Sign convention: a potential ``E_V_X`` is the potential of the metal measured
+against reference electrode X (metal minus reference), in volts. A reference
+electrode's own potential is stated against the standard hydrogen electrode,
+``E_ref_V_SHE``. Then
+
+    E_V_SHE = E_V_X + E_ref_V_SHE(X)
+    E_V_Y   = E_V_X + E_ref_V_SHE(X) − E_ref_V_SHE(Y)
+
+A reference's potential at temperature T uses its published temperature
+coefficient where one exists: E(T) = E(25 °C) + (dE/dT)·(T − 298.15 K).
+"""
+
+from __future__ import annotations
+
+from . import data, units
+from .report import Report
+from .schema import CHOICE, QUANTITY, Calculator, Field
+
+T25_K = 298.15
+
+
+def reference_ids():
+    """Ids and names of the reference electrodes in ``data/``."""
+    return [(r["id"], r["name"]) for r in data.table("reference_electrodes")]
+
+
+def reference(ref_id, field="reference"):
+    """Return the data row of a reference electrode (ChoiceError if unknown)."""
+    return data.lookup("reference_electrodes", ref_id, field=field, what="reference electrode")
+
+
+def reference_potential(ref_id, T_K=T25_K, field="reference"):
+    """Potential of a reference electrode vs SHE at ``T_K``.
+
+    Parameters
+    ----------
+    ref_id : str
+        Id in ``data/reference_electrodes.csv`` (``sce``, ``cse``, ...).
+    T_K : float
+        Temperature [K].
+
+    Returns
+    -------
+    tuple
+        (E_V_SHE [V], coefficient_used [bool], row)
+
+    Example
+    -------
+    >>> round(reference_potential("sce")[0], 4)
+    0.2412
+    """
+    row = reference(ref_id, field)
+    coef = row["dEdT_mV_per_K"]
+    if coef is None:
+        return row["E_V_SHE"], False, row
+    return row["E_V_SHE"] + coef * 1e-3 * (T_K - T25_K), True, row
+
+
+def to_scale(E_V, from_ref, to_ref, T_K=T25_K):
+    """Convert a potential from one reference scale to another [V]."""
+    e_from, _, _ = reference_potential(from_ref, T_K)
+    e_to, _, _ = reference_potential(to_ref, T_K)
+    return E_V + e_from - e_to
+
+
+def compute_convert(potential, from_ref, to_ref, temperature):
+    """Convert ``potential`` [V vs from_ref] to the ``to_ref`` scale."""
+    T_K = temperature
+    e_from, coef_from, row_from = reference_potential(from_ref, T_K, "from_ref")
+    e_to, coef_to, row_to = reference_potential(to_ref, T_K, "to_ref")
+    out = potential + e_from - e_to
+    off_25 = abs(T_K - T25_K) > 0.05
+    rep = Report()
+    rep.headline(f"{units.fmt(potential, 'V', 4)} vs {row_from['name']} is "
+                 f"{units.fmt(out, 'V', 4)} vs {row_to['name']}.")
+    rep.row("Potential on the target scale", units.fmt(out, "V", 4),
+            f"computed: E(vs {to_ref}) = E(vs {from_ref}) + E_{from_ref} − E_{to_ref}",
+            key="potential_V")
+    missing = []
+    for role, row, e, coef in (("From", row_from, e_from, coef_from),
+                               ("To", row_to, e_to, coef_to)):
+        rep.row(f"{role}: {row['name']} vs SHE at {units.fmt(T_K - 273.15, '°C', 3)}",
+                units.fmt(e, "V", 4), data.cite(row))
+        if coef:
+            if row["dEdT_mV_per_K"]:
+                rep.row(f"{row['name']} temperature coefficient",
+                        f"{row['dEdT_mV_per_K']:+g} mV/K", data.cite(row, "dEdT_"))
+        elif off_25:
+            missing.append(row["name"])
+    if missing:
+        rep.warn("No published temperature coefficient for " + " and ".join(missing) +
+                 ": its 25 °C value is used, so the result carries extra uncertainty "
+                 "away from 25 °C.")
+    for row in (row_from, row_to):
+        if row["confidence"] == "from-memory":
+            rep.warn(f"The potential of {row['name']} is from memory, not confirmed "
+                     "against a published source; measure it against a calibrated "
+                     "reference before relying on it.")
+    rep.note("Reference potentials assume the electrode's filling solution as named; a "
+             "contaminated or diluted filling shifts the reading.")
+    return {
+        "potential_V": out,
+        "from_ref": from_ref, "to_ref": to_ref,
+        "temperature_K": T_K,
+        "from_ref_V_SHE": e_from, "to_ref_V_SHE": e_to,
+        "temperature_coefficient_used": {"from_ref": coef_from, "to_ref": coef_to},
+        "missing_temperature_coefficient": [r["id"] for r, c in
+                                            ((row_from, coef_from), (row_to, coef_to))
+                                            if not c and off_25],
+        "sources": {"from_ref": data.cite(row_from), "to_ref": data.cite(row_to)},
+        "display": rep.to_dict(),
+    }
+
+
+TEMPERATURE_HELP = ("Liquid water at 1 atm: 0 to 100 °C. Reference potentials are "
+                    "tabulated at 25 °C.")
+
+
+def temperature_field(key="temperature", label="Temperature", default="25 °C", help=""):
+    """The temperature input every calculator shares (0–100 °C, liquid water)."""
+    return Field(key, label, QUANTITY, default=default, quantity="temperature", unit="degC",
+                 min=273.15, max=373.15, help=help or TEMPERATURE_HELP,
+                 range_note="The tabulated data applies to liquid water at 1 atm.")
+
+
+def reference_field(key, label, default, help=""):
+    return Field(key, label, CHOICE, default=default, choices=reference_ids,
+                 help=help or "Reference electrode the potential is measured against.",
+                 source="data/reference_electrodes.csv")
+
+
+CALCULATORS = [
+    Calculator(
+        name="convert",
+        title="Reference scale converter",
+        summary="Convert a measured potential between reference-electrode scales.",
+        intro=("A potential means nothing without the electrode it was read against. "
+               "Convert a reading (say −0.80 V against a silver/silver chloride "
+               "seawater cell) to the scale of a table or a specification."),
+        fields=[
+            Field("potential", "Measured potential", QUANTITY, default="-0.80 V",
+                  quantity="potential", unit="V", min=-5.0, max=5.0,
+                  help="Metal minus reference, e.g. −0.80 V or −800 mV."),
+            reference_field("from_ref", "Measured against", "sce"),
+            reference_field("to_ref", "Convert to", "she"),
+            temperature_field(),
+        ],
+        compute=compute_convert,
+        example={"potential": "-0.80 V", "from_ref": "sce", "to_ref": "she",
+                 "temperature": "25 °C"},
+    ),
+]
