@@ -27,12 +27,28 @@ def _record_line(arcname, data):
     return f"{arcname},sha256={digest.decode()},{len(data)}"
 
 
-def _zip_member(zf, arcname, data):
-    info = zipfile.ZipInfo(arcname, date_time=EPOCH)
-    info.compress_type = zipfile.ZIP_DEFLATED
-    info.external_attr = 0o644 << 16
-    info.create_system = 3
-    zf.writestr(info, data, compresslevel=9)
+def write_wheel(out_path, members, dist_info):
+    """Write ``members`` ({arcname: bytes}) as a deterministic wheel.
+
+    Package files come first, then ``dist_info``'s files, then a freshly
+    computed RECORD (any RECORD in ``members`` is replaced). Shared by
+    build.py for the noblegap wheel, so every wheel of the site is written
+    the same way.
+    """
+    record_key = f"{dist_info}/RECORD"
+    members = {k: v for k, v in members.items() if k != record_key}
+    order = sorted(k for k in members if not k.startswith(dist_info + "/"))
+    order += sorted(k for k in members if k.startswith(dist_info + "/"))
+    record = [_record_line(k, members[k]) for k in order] + [f"{record_key},,"]
+    members[record_key] = ("\n".join(record) + "\n").encode()
+    order.append(record_key)
+    with zipfile.ZipFile(out_path, "w") as zout:
+        for arcname in order:
+            info = zipfile.ZipInfo(arcname, date_time=EPOCH)
+            info.compress_type = zipfile.ZIP_DEFLATED
+            info.external_attr = 0o644 << 16
+            info.create_system = 3
+            zout.writestr(info, members[arcname], compresslevel=9)
 
 
 def python_tag():
@@ -91,18 +107,7 @@ def compile_wheel(in_path, out_dir, drop_prefixes=(), work_dir="/tmp/pyc-work"):
     ]
     members[wheel_key] = ("\n".join(lines) + "\n").encode()
 
-    record_key = f"{dist_info}/RECORD"
-    members.pop(record_key, None)
-    order = sorted(k for k in members if not k.startswith(dist_info + "/"))
-    order += sorted(k for k in members if k.startswith(dist_info + "/"))
-    record = [_record_line(k, members[k]) for k in order] + [f"{record_key},,"]
-    members[record_key] = ("\n".join(record) + "\n").encode()
-    order.append(record_key)
-
     os.makedirs(out_dir, exist_ok=True)
-    out_path = os.path.join(out_dir, out_name)
-    with zipfile.ZipFile(out_path, "w") as zout:
-        for arcname in order:
-            _zip_member(zout, arcname, members[arcname])
+    write_wheel(os.path.join(out_dir, out_name), members, dist_info)
     shutil.rmtree(work_dir, ignore_errors=True)
     return out_name

@@ -15,7 +15,7 @@ from . import __version__
 from .errors import ChoiceError, NoblegapError
 
 # Modules that define CALCULATORS (a list of schema.Calculator), in page order.
-CALCULATOR_MODULES = ("electrodes", "couples")
+CALCULATOR_MODULES = ("electrodes", "couples", "galvanic", "nernst", "fasteners", "holidays")
 
 _REGISTRY = None
 

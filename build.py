@@ -1,0 +1,698 @@
+"""Build the static, self-contained site in ``site/``.
+
+    python3 build.py                  build site/
+    python3 build.py --serve          build, then serve site/ on 127.0.0.1:8000
+    python3 build.py --offline        build from .cache/ only; never run npm or pip
+
+Steps, each cached in ``.cache/`` so that a rebuild needs no network and
+takes seconds:
+
+1. Pyodide runtime: ``npm pack`` of the one version pinned in
+   ``pins/pyodide.json``; the tarball's sha512 must equal the pinned npm
+   integrity before anything is extracted.
+2. PyPI wheels: ``pip download --no-deps --only-binary=:all:`` of exactly the
+   versions in ``requirements-core.txt``; each file's sha256 must equal
+   ``pins/wheels.json``.
+3. The noblegap wheel, written by hand from ``core/noblegap`` plus
+   ``data/*.csv`` (as ``noblegap/_data/``), byte for byte reproducible.
+4. Byte-compilation of every wheel inside Pyodide under Node
+   (``tools/pyodide_compile.mjs``), since a ``.pyc`` only loads in the Python
+   minor version that wrote it.
+5. ``site/packages/noblegap-lock.json``: a Pyodide lock file listing these
+   wheels with their sha256, so the browser checks every download.
+6. Pages: the core runs here on CPython; every calculator page is rendered
+   with its example already computed.
+7. Static files, the web-app manifest, and ``sw.js`` with the precache list
+   and a cache name derived from the content hash; ``build-manifest.json``
+   lists every file with sha256 and size.
+
+A later step (a Pyodide memory snapshot made under Node) slots in between 5
+and 7: it needs only ``site/pyodide`` and ``site/packages``, and its output
+is one more file that step 7 lists and precaches.
+"""
+
+from __future__ import annotations
+
+import argparse
+import base64
+import email.parser
+import hashlib
+import http.server
+import json
+import os
+import re
+import shutil
+import subprocess
+import sys
+import tarfile
+import tempfile
+import tomllib
+from functools import partial
+from pathlib import Path
+
+ROOT = Path(__file__).absolute().parent
+CORE = ROOT / "core"
+DATA = ROOT / "data"
+SITE_SRC = ROOT / "site_src"
+TEMPLATES = SITE_SRC / "templates"
+STATIC = SITE_SRC / "static"
+PINS = ROOT / "pins"
+TOOLS = ROOT / "tools"
+SITE = ROOT / "site"
+CACHE = Path(os.environ.get("NOBLEGAP_CACHE", ROOT / ".cache"))
+
+PACKAGES_DIR = "packages"
+LOCK_NAME = "noblegap-lock.json"
+MANIFEST_NAME = "build-manifest.json"
+SW_NAME = "sw.js"
+SW_MARKER = '"__NOBLEGAP_BUILD__"'
+PLACEHOLDER_PREFIX = "_placeholder_"
+
+# Files of a PyPI wheel that the site never imports.
+WHEEL_DROP = {"pint": ["pint/testsuite/"]}
+
+# Files at the site root rather than under static/: the service worker's
+# scope is the folder it is served from, and the web-app manifest's
+# start_url is resolved against its own URL.
+ROOT_STATIC = {"sw.js", "manifest.webmanifest"}
+
+CSP = (
+    "default-src 'self'; script-src 'self' 'wasm-unsafe-eval'; worker-src 'self'; "
+    "connect-src 'self'; img-src 'self' data: blob:; style-src 'self'; "
+    "object-src 'none'; base-uri 'self'; form-action 'self'"
+)
+
+MIME_TYPES = {
+    ".mjs": "text/javascript",
+    ".js": "text/javascript",
+    ".wasm": "application/wasm",
+    ".webmanifest": "application/manifest+json",
+    ".json": "application/json",
+    ".whl": "application/zip",
+    ".zip": "application/zip",
+    ".svg": "image/svg+xml",
+}
+
+
+class BuildError(RuntimeError):
+    """A build step failed; the message says which and what to do."""
+
+
+def log(msg: str) -> None:
+    print(f"build: {msg}", file=sys.stderr, flush=True)
+
+
+def sha256_file(path: Path) -> str:
+    h = hashlib.sha256()
+    with open(path, "rb") as f:
+        for block in iter(lambda: f.read(1 << 20), b""):
+            h.update(block)
+    return h.hexdigest()
+
+
+def normalize(name: str) -> str:
+    """PEP 503 name: lower case, runs of ``-_.`` become one ``-``."""
+    return re.sub(r"[-_.]+", "-", name).lower()
+
+
+# ---------------------------------------------------------------- pins
+
+
+def load_pyodide_pin() -> dict:
+    return json.loads((PINS / "pyodide.json").read_text())
+
+
+def load_wheel_pins() -> dict:
+    return json.loads((PINS / "wheels.json").read_text())["wheels"]
+
+
+def core_requirements() -> list[tuple[str, str]]:
+    """(name, version) for each ``name==version`` line of requirements-core.txt."""
+    reqs = []
+    for raw in (ROOT / "requirements-core.txt").read_text().splitlines():
+        line = raw.split("#", 1)[0].strip()
+        if not line:
+            continue
+        m = re.fullmatch(r"([A-Za-z0-9][A-Za-z0-9._-]*)==([A-Za-z0-9.+!-]+)", line)
+        if not m:
+            raise BuildError(f"requirements-core.txt: {raw!r} is not an exact 'name==version' pin")
+        reqs.append((m.group(1), m.group(2)))
+    return reqs
+
+
+def project_meta() -> dict:
+    return tomllib.loads((ROOT / "pyproject.toml").read_text())["project"]
+
+
+# ---------------------------------------------------------------- inputs stamp
+
+
+def input_files() -> list[Path]:
+    """Every file whose content the built site depends on."""
+    files = [ROOT / "build.py", ROOT / "requirements-core.txt", ROOT / "pyproject.toml"]
+    for base in (CORE / "noblegap", DATA, SITE_SRC, PINS, TOOLS):
+        if base.exists():
+            for p in base.rglob("*"):
+                if p.is_file() and "__pycache__" not in p.parts and p.suffix != ".pyc":
+                    files.append(p)
+    return sorted(set(files))
+
+
+def inputs_digest() -> str:
+    """sha256 over the paths and contents of :func:`input_files`."""
+    h = hashlib.sha256()
+    for p in input_files():
+        h.update(p.relative_to(ROOT).as_posix().encode() + b"\0")
+        h.update(sha256_file(p).encode() + b"\n")
+    return h.hexdigest()
+
+
+def site_is_current(site: Path = SITE) -> bool:
+    """True when ``site`` was built from exactly the current inputs."""
+    manifest = site / MANIFEST_NAME
+    if not manifest.exists():
+        return False
+    try:
+        return json.loads(manifest.read_text()).get("inputs") == inputs_digest()
+    except ValueError:
+        return False
+
+
+# ---------------------------------------------------------------- step 1: Pyodide
+
+
+def fetch_pyodide(pin: dict, offline: bool) -> Path:
+    """Extracted Pyodide files for the pinned version (cached)."""
+    version = pin["version"]
+    out = CACHE / "pyodide" / version
+    stamp = out / ".integrity"
+    if stamp.exists() and stamp.read_text() == pin["integrity"]:
+        return out
+    tgz = CACHE / "npm" / f"pyodide-{version}.tgz"
+    if not tgz.exists():
+        if offline:
+            raise BuildError(f"--offline, but {tgz} is not cached; run once without --offline")
+        tgz.parent.mkdir(parents=True, exist_ok=True)
+        log(f"npm pack {pin['package']}@{version}")
+        subprocess.run(
+            ["npm", "pack", f"{pin['package']}@{version}", "--pack-destination", str(tgz.parent),
+             "--silent"],
+            check=True, stdout=subprocess.DEVNULL,
+        )
+    digest = hashlib.sha512(tgz.read_bytes()).digest()
+    integrity = "sha512-" + base64.b64encode(digest).decode()
+    if integrity != pin["integrity"]:
+        tgz.unlink()
+        raise BuildError(
+            f"{tgz.name}: integrity {integrity} does not match pins/pyodide.json "
+            f"({pin['integrity']}); the cached tarball was removed, rebuild to fetch it again"
+        )
+    if out.exists():
+        shutil.rmtree(out)
+    out.mkdir(parents=True)
+    with tarfile.open(tgz) as tf:
+        for name in pin["files"]:
+            member = tf.getmember(f"package/{name}")
+            src = tf.extractfile(member)
+            if src is None:
+                raise BuildError(f"{tgz.name}: package/{name} is not a regular file")
+            (out / name).write_bytes(src.read())
+    stamp.write_text(pin["integrity"])
+    return out
+
+
+# ---------------------------------------------------------------- step 2: PyPI wheels
+
+
+def _cached_wheels(cache: Path, name: str, version: str) -> list[Path]:
+    return [p for p in sorted(cache.glob("*.whl"))
+            if normalize(p.name.split("-")[0]) == normalize(name) and p.name.split("-")[1] == version]
+
+
+def fetch_wheels(offline: bool) -> list[Path]:
+    """The pinned PyPI wheels, downloaded once and checked against pins/wheels.json."""
+    pins = load_wheel_pins()
+    cache = CACHE / "wheels"
+    cache.mkdir(parents=True, exist_ok=True)
+    wheels = []
+    for name, version in core_requirements():
+        found = _cached_wheels(cache, name, version)
+        if not found:
+            if offline:
+                raise BuildError(f"--offline, but no wheel for {name}=={version} in {cache}")
+            log(f"pip download {name}=={version}")
+            subprocess.run(
+                [sys.executable, "-m", "pip", "download", "--quiet", "--disable-pip-version-check",
+                 "--no-deps", "--only-binary=:all:", "--dest", str(cache), f"{name}=={version}"],
+                check=True,
+            )
+            found = _cached_wheels(cache, name, version)
+        if len(found) != 1:
+            raise BuildError(f"expected one wheel for {name}=={version} in {cache}, found {found}")
+        wheel = found[0]
+        if not wheel.name.endswith("-none-any.whl"):
+            raise BuildError(f"{wheel.name} is not a pure-Python wheel; Pyodide cannot use it as is")
+        expected = pins.get(wheel.name)
+        actual = sha256_file(wheel)
+        if expected is None:
+            raise BuildError(f"pins/wheels.json has no sha256 for {wheel.name}; "
+                             "run `python3 build.py --update-pins` and review the diff")
+        if actual != expected:
+            raise BuildError(f"{wheel.name}: sha256 {actual} differs from pins/wheels.json {expected}")
+        wheels.append(wheel)
+    return wheels
+
+
+def update_wheel_pins() -> None:
+    """Rewrite pins/wheels.json from freshly downloaded wheels."""
+    with tempfile.TemporaryDirectory() as tmp:
+        specs = [f"{n}=={v}" for n, v in core_requirements()]
+        subprocess.run(
+            [sys.executable, "-m", "pip", "download", "--quiet", "--disable-pip-version-check",
+             "--no-deps", "--only-binary=:all:", "--dest", tmp, *specs],
+            check=True,
+        )
+        doc = json.loads((PINS / "wheels.json").read_text())
+        doc["wheels"] = {p.name: sha256_file(p) for p in sorted(Path(tmp).glob("*.whl"))}
+        (PINS / "wheels.json").write_text(json.dumps(doc, indent=2) + "\n")
+    log("pins/wheels.json rewritten")
+
+
+# ---------------------------------------------------------------- step 3: noblegap wheel
+
+
+def _wheel_writer():
+    sys.path.insert(0, str(TOOLS))
+    try:
+        import pyc_wheel
+    finally:
+        sys.path.remove(str(TOOLS))
+    return pyc_wheel
+
+
+def build_core_wheel() -> Path:
+    """Write the noblegap wheel (source, py3-none-any) into the cache."""
+    meta = project_meta()
+    name, version = meta["name"], meta["version"]
+    dist = f"{name}-{version}"
+    members: dict[str, bytes] = {}
+    pkg = CORE / "noblegap"
+    for p in sorted(pkg.rglob("*")):
+        if p.is_file() and "__pycache__" not in p.parts and p.suffix not in (".pyc", ".pyo"):
+            rel = p.relative_to(CORE).as_posix()
+            if rel.startswith("noblegap/_data/"):
+                raise BuildError(f"core/{rel}: tables belong in data/, which build.py copies into _data/")
+            members[rel] = p.read_bytes()
+    for p in sorted(DATA.glob("*.csv")):
+        members[f"noblegap/_data/{p.name}"] = p.read_bytes()
+    requires = "".join(f"Requires-Dist: {d}\n" for d in meta.get("dependencies", []))
+    members[f"{dist}.dist-info/METADATA"] = (
+        "Metadata-Version: 2.1\n"
+        f"Name: {name}\n"
+        f"Version: {version}\n"
+        f"Summary: {meta.get('description', '')}\n"
+        f"Requires-Python: {meta.get('requires-python', '>=3.11')}\n"
+        f"{requires}"
+    ).encode()
+    members[f"{dist}.dist-info/WHEEL"] = (
+        "Wheel-Version: 1.0\nGenerator: noblegap build.py\nRoot-Is-Purelib: true\nTag: py3-none-any\n"
+    ).encode()
+    members[f"{dist}.dist-info/top_level.txt"] = b"noblegap\n"
+    out_dir = CACHE / "build"
+    out_dir.mkdir(parents=True, exist_ok=True)
+    out = out_dir / f"{dist}-py3-none-any.whl"
+    _wheel_writer().write_wheel(str(out), members, f"{dist}.dist-info")
+    return out
+
+
+# ---------------------------------------------------------------- step 4: byte-compile
+
+
+def compile_wheels(pyodide_dir: Path, wheels: list[Path], pin: dict) -> list[Path]:
+    """Byte-compile ``wheels`` inside Pyodide; cached by input content."""
+    tool_hash = hashlib.sha256(
+        (TOOLS / "pyc_wheel.py").read_bytes() + (TOOLS / "pyodide_compile.mjs").read_bytes()
+    ).hexdigest()
+    results: dict[Path, Path] = {}
+    todo = []
+    for wheel in wheels:
+        drop = WHEEL_DROP.get(normalize(wheel.name.split("-")[0]), [])
+        key = hashlib.sha256(
+            f"{sha256_file(wheel)}|{pin['version']}|{tool_hash}|{json.dumps(drop)}".encode()
+        ).hexdigest()[:32]
+        cdir = CACHE / "pyc" / key
+        hits = list(cdir.glob("*.whl")) if cdir.exists() else []
+        if len(hits) == 1:
+            results[wheel] = hits[0]
+        else:
+            todo.append((wheel, drop, cdir))
+    if todo:
+        if shutil.which("node") is None:
+            raise BuildError("node is needed to byte-compile wheels inside Pyodide "
+                             "(or pass --no-compile to ship source wheels)")
+        with tempfile.TemporaryDirectory() as tmp:
+            job = {
+                "pyodide_dir": str(pyodide_dir),
+                "out_dir": tmp,
+                "wheels": [{"path": str(w), "drop": d} for w, d, _ in todo],
+            }
+            job_path = Path(tmp) / "job.json"
+            job_path.write_text(json.dumps(job))
+            log(f"byte-compiling {len(todo)} wheel(s) inside Pyodide {pin['version']}")
+            proc = subprocess.run(
+                ["node", str(TOOLS / "pyodide_compile.mjs"), str(job_path)],
+                check=True, capture_output=True, text=True,
+            )
+            report = json.loads(proc.stdout.strip().splitlines()[-1])
+            if report["python"] != pin["python"]:
+                raise BuildError(f"Pyodide reports Python {report['python']}, "
+                                 f"pins/pyodide.json says {pin['python']}")
+            for wheel, _, cdir in todo:
+                out_name = report["wheels"][wheel.name]
+                if cdir.exists():
+                    shutil.rmtree(cdir)
+                cdir.mkdir(parents=True)
+                shutil.copy2(Path(tmp) / out_name, cdir / out_name)
+                results[wheel] = cdir / out_name
+    return [results[w] for w in wheels]
+
+
+# ---------------------------------------------------------------- step 5: lock file
+
+
+def _wheel_metadata(path: Path) -> tuple[str, str, list[str], list[str]]:
+    """(name, version, requirement names, top-level imports) of a wheel."""
+    import zipfile
+
+    with zipfile.ZipFile(path) as zf:
+        names = zf.namelist()
+        meta_name = next(n for n in names if n.endswith(".dist-info/METADATA") and n.count("/") == 1)
+        meta = email.parser.Parser().parsestr(zf.read(meta_name).decode())
+        top_name = meta_name.replace("METADATA", "top_level.txt")
+        if top_name in names:
+            imports = [s.strip() for s in zf.read(top_name).decode().splitlines() if s.strip()]
+        else:
+            imports = sorted({
+                n.split("/", 1)[0].removesuffix(".py").removesuffix(".pyc")
+                for n in names
+                if not n.split("/", 1)[0].endswith((".dist-info", ".data"))
+                and (n.endswith((".py", ".pyc")) or "/" in n)
+            })
+    requires = []
+    for req in meta.get_all("Requires-Dist") or []:
+        spec, _, marker = req.partition(";")
+        if "extra" in marker:
+            continue
+        m = re.match(r"\s*([A-Za-z0-9][A-Za-z0-9._-]*)", spec)
+        if m:
+            requires.append((normalize(m.group(1)), marker.strip()))
+    return meta["Name"], meta["Version"], requires, imports
+
+
+def write_lock(pyodide_dir: Path, wheels: list[Path], out_dir: Path) -> dict:
+    """Copy ``wheels`` into ``out_dir`` and write the site's Pyodide lock file.
+
+    The entries are written directly in Pyodide's lock format (the ``info``
+    block copied from the pinned Pyodide's own lock, so the ABI check
+    passes), each with the sha256 that the browser checks on download.
+    """
+    info = json.loads((pyodide_dir / "pyodide-lock.json").read_text())["info"]
+    out_dir.mkdir(parents=True, exist_ok=True)
+    entries = {}
+    reqs = {}
+    for wheel in wheels:
+        name, version, requires, imports = _wheel_metadata(wheel)
+        key = normalize(name)
+        shutil.copy2(wheel, out_dir / wheel.name)
+        entries[key] = {
+            "name": key,
+            "version": version,
+            "file_name": wheel.name,
+            "install_dir": "site",
+            "sha256": sha256_file(wheel),
+            "package_type": "package",
+            "imports": imports,
+            "depends": [],
+        }
+        reqs[key] = requires
+    for key, requires in reqs.items():
+        for dep, marker in requires:
+            if dep in entries:
+                entries[key]["depends"].append(dep)
+            elif not marker:
+                raise BuildError(f"{key} requires {dep}, which is not bundled; "
+                                 "pin it in requirements-core.txt")
+        entries[key]["depends"].sort()
+    lock = {"info": info, "packages": dict(sorted(entries.items()))}
+    (out_dir / LOCK_NAME).write_text(json.dumps(lock, indent=1, sort_keys=True) + "\n")
+    return lock
+
+
+# ---------------------------------------------------------------- step 6: pages
+
+
+def import_core():
+    """Import noblegap (from core/, not any installed copy) on CPython."""
+    sys.path.insert(0, str(CORE))
+    for mod in [m for m in sys.modules if m == "noblegap" or m.startswith("noblegap.")]:
+        del sys.modules[mod]
+    import noblegap.api
+
+    return noblegap.api
+
+
+def _template(env, name: str):
+    """Template ``name``, or its ``_placeholder_`` stand-in while it is absent."""
+    if (TEMPLATES / name).exists():
+        return env.get_template(name)
+    placeholder = PLACEHOLDER_PREFIX + name
+    if (TEMPLATES / placeholder).exists():
+        log(f"warning: site_src/templates/{name} is missing; using {placeholder}")
+        return env.get_template(placeholder)
+    raise BuildError(f"site_src/templates/{name} is missing")
+
+
+def render_pages(site: Path, site_globals: dict, api) -> list[str]:
+    import jinja2
+
+    env = jinja2.Environment(
+        loader=jinja2.FileSystemLoader(str(TEMPLATES)),
+        autoescape=jinja2.select_autoescape(["html", "xml"]),
+        undefined=jinja2.StrictUndefined,
+        keep_trailing_newline=True,
+    )
+    # site and csp are the documented globals; nav and version are the same
+    # facts under the names the page templates use.
+    env.globals.update(site=site_globals, csp=CSP, nav=site_globals["calculators"],
+                       version=site_globals["version"])
+    desc = api.describe()
+    written = []
+    for calc in desc["calculators"]:
+        example = calc.get("example", {})
+        result = api.run(calc["name"], example)
+        if not result.get("ok"):
+            raise BuildError(f"calculator {calc['name']!r}: its example fails on CPython: {result}")
+        json.dumps(result, allow_nan=False)
+        html = _template(env, "calc.html").render(
+            calc=calc, example_inputs=example, example_result=result, page=calc_page(calc),
+            page_name=calc["name"],
+        )
+        (site / calc_page(calc)).write_text(html)
+        written.append(calc_page(calc))
+    html = _template(env, "index.html").render(
+        calculators=desc["calculators"], page="index.html", page_name="index")
+    (site / "index.html").write_text(html)
+    written.append("index.html")
+    for extra in desc.get("pages", []):
+        html = _template(env, extra["template"]).render(
+            **{"page": extra["out"], "page_name": extra["out"].removesuffix(".html"),
+               **extra.get("context", {})})
+        (site / extra["out"]).write_text(html)
+        written.append(extra["out"])
+    return written
+
+
+def calc_page(calc: dict) -> str:
+    return calc.get("page") or f"{calc['name']}.html"
+
+
+def site_globals_for(api, pin: dict) -> dict:
+    desc = api.describe()
+    meta = project_meta()
+    static_css = sorted(p.name for p in STATIC.glob("*.css")) if STATIC.exists() else []
+    return {
+        "name": "noblegap",
+        "version": meta["version"],
+        "pyodide_version": pin["version"],
+        "python_version": pin["python"],
+        "calculators": [
+            {"name": c["name"], "title": c.get("title", c["name"]),
+             "summary": c.get("summary", ""), "page": calc_page(c)}
+            for c in desc["calculators"]
+        ],
+        "pages": [
+            {"out": p["out"], "title": p.get("context", {}).get("title", p["out"])}
+            for p in desc.get("pages", [])
+        ],
+        "assets": {
+            "app_js": "static/app.js",
+            "worker_js": "static/worker.js",
+            "css": [f"static/{n}" for n in static_css],
+            "manifest": "manifest.webmanifest",
+            "sw": SW_NAME,
+            "icon_svg": "static/icon.svg",
+            "icon_png": "static/icon-192.png",
+            "lock": f"{PACKAGES_DIR}/{LOCK_NAME}",
+            "pyodide": "pyodide/",
+        },
+        "csp": CSP,
+    }
+
+
+# ---------------------------------------------------------------- step 7: static, manifest, sw
+
+
+def copy_static(site: Path) -> None:
+    if not STATIC.exists():
+        return
+    for p in sorted(STATIC.rglob("*")):
+        if not p.is_file() or p.name.startswith(".") or p.name.startswith(PLACEHOLDER_PREFIX):
+            continue
+        rel = p.relative_to(STATIC)
+        if rel.as_posix() == SW_NAME:
+            continue
+        dest = site / rel if rel.as_posix() in ROOT_STATIC else site / "static" / rel
+        dest.parent.mkdir(parents=True, exist_ok=True)
+        shutil.copyfile(p, dest)
+
+
+def write_manifest_and_sw(site: Path, inputs: str, pin: dict) -> dict:
+    files = {}
+    for p in sorted(site.rglob("*")):
+        rel = p.relative_to(site).as_posix()
+        if p.is_file() and rel not in (MANIFEST_NAME, SW_NAME):
+            files[rel] = {"sha256": sha256_file(p), "size": p.stat().st_size}
+    content = hashlib.sha256(
+        "".join(f"{k}\0{v['sha256']}\n" for k, v in files.items()).encode()
+    ).hexdigest()
+    version = project_meta()["version"]
+    cache_name = f"noblegap-{version}-{content[:16]}"
+    manifest = {
+        "name": "noblegap",
+        "version": version,
+        "pyodide": pin["version"],
+        "inputs": inputs,
+        "content_sha256": content,
+        "cache": cache_name,
+        "files": files,
+    }
+    sw_src = STATIC / SW_NAME
+    if sw_src.exists():
+        text = sw_src.read_text()
+        if text.count(SW_MARKER) != 1:
+            raise BuildError(f"site_src/static/{SW_NAME} must contain {SW_MARKER} exactly once")
+        build = {"cache": cache_name, "files": sorted(files)}
+        (site / SW_NAME).write_text(text.replace(SW_MARKER, json.dumps(build, separators=(",", ":"))))
+    (site / MANIFEST_NAME).write_text(json.dumps(manifest, indent=1) + "\n")
+    return manifest
+
+
+# ---------------------------------------------------------------- driver
+
+
+def build(site: Path = SITE, offline: bool = False, compile_pyc: bool = True) -> dict:
+    """Build the whole site into ``site``; returns the build manifest."""
+    inputs = inputs_digest()
+    pin = load_pyodide_pin()
+    pyodide_dir = fetch_pyodide(pin, offline)
+    wheels = fetch_wheels(offline) + [build_core_wheel()]
+    if compile_pyc:
+        wheels = compile_wheels(pyodide_dir, wheels, pin)
+    api = import_core()
+    site_globals = site_globals_for(api, pin)
+
+    tmp = site.with_name(site.name + ".tmp")
+    if tmp.exists():
+        shutil.rmtree(tmp)
+    tmp.mkdir(parents=True)
+    (tmp / "pyodide").mkdir()
+    for name in pin["site_files"]:
+        shutil.copyfile(pyodide_dir / name, tmp / "pyodide" / name)
+    write_lock(pyodide_dir, wheels, tmp / PACKAGES_DIR)
+    render_pages(tmp, site_globals, api)
+    copy_static(tmp)
+    manifest = write_manifest_and_sw(tmp, inputs, pin)
+    if site.exists():
+        shutil.rmtree(site)
+    tmp.rename(site)
+    total = sum(f["size"] for f in manifest["files"].values())
+    log(f"site/ ready: {len(manifest['files'])} files, {total / 1e6:.1f} MB, cache {manifest['cache']}")
+    return manifest
+
+
+class SiteHandler(http.server.SimpleHTTPRequestHandler):
+    """Static files with the site's CSP header and correct module/wasm types."""
+
+    extensions_map = {**http.server.SimpleHTTPRequestHandler.extensions_map, **MIME_TYPES}
+
+    def end_headers(self):
+        self.send_header("Content-Security-Policy", CSP)
+        self.send_header("Cache-Control", "no-cache")
+        self.send_header("X-Content-Type-Options", "nosniff")
+        super().end_headers()
+
+    def log_message(self, format, *args):
+        if os.environ.get("NOBLEGAP_SERVE_LOG"):
+            super().log_message(format, *args)
+
+
+class SiteServer(http.server.ThreadingHTTPServer):
+    daemon_threads = True
+
+    def handle_error(self, request, client_address):
+        # A browser that drops a download half way (a reload, a closed tab)
+        # is routine, not a server error.
+        if isinstance(sys.exc_info()[1], (BrokenPipeError, ConnectionResetError)):
+            return
+        super().handle_error(request, client_address)
+
+
+def make_server(site: Path = SITE, port: int = 8000) -> SiteServer:
+    """An HTTP server for ``site`` on 127.0.0.1 (``port=0`` picks a free port)."""
+    handler = partial(SiteHandler, directory=str(site))
+    return SiteServer(("127.0.0.1", port), handler)
+
+
+def main(argv=None) -> int:
+    parser = argparse.ArgumentParser(description="Build the noblegap static site into site/.")
+    parser.add_argument("--serve", action="store_true", help="serve site/ on 127.0.0.1 after building")
+    parser.add_argument("--port", type=int, default=8000, help="port for --serve (default 8000)")
+    parser.add_argument("--offline", action="store_true", help="use .cache/ only; never run npm or pip")
+    parser.add_argument("--no-compile", action="store_true",
+                        help="ship source wheels instead of byte-compiling them inside Pyodide")
+    parser.add_argument("--update-pins", action="store_true",
+                        help="rewrite pins/wheels.json from requirements-core.txt, then exit")
+    args = parser.parse_args(argv)
+    try:
+        if args.update_pins:
+            update_wheel_pins()
+            return 0
+        build(offline=args.offline, compile_pyc=not args.no_compile)
+    except (BuildError, subprocess.CalledProcessError) as exc:
+        print(f"build failed: {exc}", file=sys.stderr)
+        return 1
+    if args.serve:
+        server = make_server(SITE, args.port)
+        host, port = server.server_address[:2]
+        print(f"Serving site/ at http://{host}:{port}/  (Ctrl-C to stop)", flush=True)
+        try:
+            server.serve_forever()
+        except KeyboardInterrupt:
+            pass
+        finally:
+            server.server_close()
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

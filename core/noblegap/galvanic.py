@@ -1,0 +1,419 @@
+"""The galvanic series of engineering alloys, and which alloy of a pair corrodes.
+
+Sign convention: potentials are free corrosion potentials, metal minus
+reference, in volts (``E_V_SCE`` on the saturated calomel scale unless a
+``reference`` is chosen). Each alloy has a range ``[E_active, E_noble]`` from
+the galvanic series in flowing seawater (ASTM G82, Fig. 1). In a pair the
+alloy of the lower range is the anode (it corrodes faster than alone); the
+other is the cathode (it corrodes slower).
+
+For alloy ranges ``[lo_a, hi_a]`` and ``[lo_b, hi_b]`` with b the more
+active one (``hi_b ≤ lo_a``):
+
+    ΔE_min = lo_a − hi_b        (best case, ≥ 0)
+    ΔE_max = hi_a − lo_b        (worst case)
+
+When the ranges overlap neither alloy is reliably the anode: ``anode`` is
+``"overlap"``, ΔE_min = 0 and ΔE_max is the largest difference the ranges
+allow. The same alloy on both sides is no couple: ``anode`` is ``"none"`` and
+ΔE = 0.
+
+Compatibility classes (our names) compare ΔE with the environment's allowed
+difference ΔE_allowed (common practice, see ``data/environments.csv``):
+
+* ``compatible`` — ΔE_max ≤ ΔE_allowed: even the worst case is within it;
+* ``marginal`` — ΔE_min ≤ ΔE_allowed < ΔE_max: it depends where in their
+  ranges the two alloys sit;
+* ``incompatible`` — ΔE_min > ΔE_allowed: even the best case exceeds it.
+
+A potential difference says which metal corrodes and how strongly it is
+driven, not how fast: the rate depends on the area ratio, the cathode's
+oxygen supply and the electrolyte's conductivity.
+
+References
+----------
+.. [1] ASTM G82, Standard Guide for Development and Use of a Galvanic Series
+   for Predicting Galvanic Corrosion Performance, Fig. 1.
+.. [2] MIL-STD-889 (anodic-index guidance), environment limits 0.15 / 0.25 /
+   0.50 V — common practice.
+"""
+
+from __future__ import annotations
+
+import re
+
+from . import electrodes, materials, units
+from .report import Report
+from .schema import Calculator
+from .svg import Svg, nice_ticks, scale
+
+COMPATIBLE, MARGINAL, INCOMPATIBLE = "compatible", "marginal", "incompatible"
+VERDICT_CLASS = {COMPATIBLE: "ok", MARGINAL: "caution", INCOMPATIBLE: "avoid"}
+OVERLAP, NONE = "overlap", "none"
+
+
+def _ref_name(ref):
+    return electrodes.reference(ref)["name"]
+
+
+def _ref_short(ref):
+    """``SCE``, ``CSE``, ``SHE`` where the name gives an abbreviation, else the name."""
+    name = _ref_name(ref)
+    m = re.search(r"\(([A-Z]{2,5})\)", name)
+    return m.group(1) if m else name
+
+
+def ordered_series(environment="seawater_flowing", reference="sce"):
+    """Alloys ordered most noble → most active, potentials on ``reference``.
+
+    Returns
+    -------
+    list of dict
+        ``{id, name, uns, state, E_noble_V, E_active_V, source, confidence}``.
+    """
+    out = []
+    for row in materials.alloy_table():
+        hi, lo = materials.potential_range(row["id"], environment, reference)
+        out.append({"id": row["id"], "name": row["name"], "uns": row["uns"],
+                    "state": row["state"], "label": materials._label(row),
+                    "E_noble_V": hi, "E_active_V": lo,
+                    "source": materials.cite_potential(row),
+                    "confidence": row["confidence"]})
+    out.sort(key=lambda r: (-r["E_noble_V"], -r["E_active_V"]))
+    return out
+
+
+RAMP = ((0x1d, 0x4e, 0x89), (0x2a, 0x8a, 0x8a), (0xc9, 0x9a, 0x1e), (0xc0, 0x4a, 0x1c))
+
+
+def _ramp(t):
+    """Colour from noble (t = 0, deep blue) through teal and ochre to active (t = 1)."""
+    t = min(max(t, 0.0), 1.0) * (len(RAMP) - 1)
+    i = min(int(t), len(RAMP) - 2)
+    a, b, f = RAMP[i], RAMP[i + 1], t - i
+    return "#" + "".join(f"{round(x + (y - x) * f):02x}" for x, y in zip(a, b))
+
+
+def series_svg(rows, ref_label, highlight=()):
+    """Horizontal range bars on a potential axis, noble at top.
+
+    ``highlight`` ids are drawn in a strong colour and the others muted.
+    """
+    label_w, plot_w, right = 290, 380, 20
+    top, row_h, bottom = 44, 15, 48
+    width = label_w + plot_w + right
+    height = top + row_h * len(rows) + bottom
+    svg = Svg(width, height, title=f"Galvanic series, V vs {ref_label}")
+    lo = min(r["E_active_V"] for r in rows)
+    hi = max(r["E_noble_V"] for r in rows)
+    pad = 0.05 * (hi - lo or 1.0)
+    ticks = nice_ticks(lo - pad, hi + pad, 8)
+    x0, x1 = min(ticks[0], lo - pad), max(ticks[-1], hi + pad)
+    x = scale(x0, x1, label_w, label_w + plot_w)
+    svg.rect(0, 0, width, height, fill="#ffffff")
+    svg.text(label_w, 18, "more active (anodic) ←", size=11, fill="#444")
+    svg.text(label_w + plot_w, 18, "→ more noble (cathodic)", size=11, anchor="end",
+             fill="#444")
+    y_axis = top + row_h * len(rows) + 6
+    for t in ticks:
+        xt = x(t)
+        svg.line(xt, top - 6, xt, y_axis, stroke="#e3e3e3")
+        svg.text(xt, y_axis + 14, f"{t:+.2f}".replace("-", "\u2212"), size=10,
+                 anchor="middle", fill="#333")
+    svg.line(label_w, y_axis, label_w + plot_w, y_axis, stroke="#333")
+    svg.text(label_w + plot_w / 2, y_axis + 32, f"Corrosion potential, V vs {ref_label}",
+             size=12, anchor="middle", fill="#222", weight="bold")
+    hl = set(highlight)
+    for i, r in enumerate(rows):
+        y = top + i * row_h
+        strong = r["id"] in hl
+        muted = bool(hl) and not strong
+        if i % 2 == 0:
+            svg.rect(0, y, width, row_h, fill="#f6f7f9")
+        colour = "#b00020" if strong else _ramp(i / max(len(rows) - 1, 1))
+        xa, xb = x(r["E_active_V"]), x(r["E_noble_V"])
+        svg.rect(xa, y + 3, max(xb - xa, 2.0), row_h - 6, fill=colour, rx=2,
+                 opacity=0.35 if muted else 1.0,
+                 stroke="#000000" if strong else None)
+        svg.text(label_w - 8, y + row_h - 4, r["label"], size=10.5, anchor="end",
+                 fill="#000000" if strong else ("#555555" if muted else "#222222"),
+                 weight="bold" if strong else None)
+    return svg
+
+
+def _fmt_range(hi, lo):
+    return f"{units.fmt(lo, '', 3)} to {units.fmt(hi, 'V', 3)}"
+
+
+def _v(value):
+    """A potential to 2 decimals, as the series prints it."""
+    return (f"{value:+.2f}".replace("-", "\u2212")) + " V"
+
+
+def compute_series(environment, reference, alloy_a=None, alloy_b=None):
+    env = materials.environment(environment)
+    ref_label = _ref_short(reference)
+    rows = ordered_series(environment, reference)
+    highlight = [a for a in (alloy_a, alloy_b) if a]
+    rep = Report()
+    rep.headline(f"{len(rows)} alloys from most noble to most active, "
+                 f"V vs {_ref_name(reference)} ({env['name'].lower()}).")
+    rep.para("Each bar spans the range of corrosion potentials the alloy shows in "
+             "flowing seawater. Of two joined alloys, the one lower in the list "
+             "(further left on the chart) is the anode and corrodes; the further "
+             "apart the bars, the stronger the drive.")
+    for w in materials.applicability(environment):
+        rep.warn(w)
+    if reference != materials.SERIES_REF:
+        rep.note(f"Potentials converted from SCE to {_ref_name(reference)} at 25 °C: "
+                 f"E(vs {reference}) = E(vs SCE) + E_SCE − E_{reference}.")
+    if highlight:
+        ra = [r for r in rows if r["id"] in highlight]
+        names = " and ".join(r["label"] for r in ra)
+        rep.para(f"Highlighted: {names}. Use the pair page for the potential "
+                 "difference and a compatibility verdict.")
+    svg = series_svg(rows, ref_label, highlight)
+    rep.chart("Galvanic series in seawater", str(svg),
+              f"Bar chart of corrosion-potential ranges of {len(rows)} alloys, "
+              f"V vs {ref_label}, most noble at the top.")
+    rep.table(f"Galvanic series (V vs {ref_label})",
+              ["Alloy", "UNS", "State", f"Range, V vs {ref_label}", "Confidence"],
+              [[r["name"], r["uns"] or "—", r["state"],
+                f"{_v(r['E_active_V'])} to {_v(r['E_noble_V'])}", r["confidence"]]
+               for r in rows],
+              note="Source: ASTM G82 Fig. 1 (flowing seawater) unless the row says "
+                   "otherwise. Stainless steels are listed twice: passive and active.",
+              filterable=True, key="alloys", sources=[r["source"] for r in rows])
+    rep.row("Environment", env["name"],
+            "input: the ranges are those measured in flowing seawater (ASTM G82, Fig. 1); "
+            + env["series_applicability"], key="environment")
+    missing = [r["label"] for r in rows if r["confidence"] == "from-memory"]
+    if missing:
+        rep.warn("Ranges not confirmed against a published source (from memory): "
+                 + "; ".join(missing) + ".")
+    return {
+        "environment": environment, "reference": reference,
+        "alloys": [{k: r[k] for k in ("id", "name", "uns", "state", "E_noble_V",
+                                      "E_active_V", "source", "confidence")}
+                   for r in rows],
+        "highlight": highlight,
+        "applicability": materials.applicability(environment),
+        "display": rep.to_dict(),
+    }
+
+
+def _apply_state(alloy_id, state, field):
+    """The row id for the requested surface state (``auto`` keeps the id as typed)."""
+    if state in (None, "", "auto"):
+        return alloy_id
+    row = materials.alloy(alloy_id)
+    if row["state"] == "n/a":
+        return alloy_id
+    return materials.resolve_alloy(row["uns"] or alloy_id, field, state=state)
+
+
+def classify(dE_min, dE_max, allowed):
+    """Compatibility class for a ΔE range against the allowed difference [V]."""
+    tol = 1e-9
+    if dE_max <= allowed + tol:
+        return COMPATIBLE
+    if dE_min <= allowed + tol:
+        return MARGINAL
+    return INCOMPATIBLE
+
+
+def couple(alloy_a, alloy_b, environment="seawater_flowing"):
+    """Anode, cathode and ΔE range of two alloys in an environment [V].
+
+    Returns
+    -------
+    dict
+        ``anode``, ``cathode`` (ids, ``"overlap"`` or ``"none"``),
+        ``likely_anode`` (the lower mid-range, or None), ``delta_E_V_min``,
+        ``delta_E_V_max``, ``delta_E_V_mid``, ``allowed_delta_E_V``,
+        ``compatibility``.
+
+    Example
+    -------
+    >>> couple("S31600", "zinc")["anode"]
+    'zinc'
+    """
+    ra, rb = materials.alloy(alloy_a), materials.alloy(alloy_b)
+    env = materials.environment(environment)
+    hi_a, lo_a = materials.potential_range(ra["id"], environment)
+    hi_b, lo_b = materials.potential_range(rb["id"], environment)
+    mid_a, mid_b = 0.5 * (hi_a + lo_a), 0.5 * (hi_b + lo_b)
+    if ra["id"] == rb["id"]:
+        anode = cathode = NONE
+        likely = None
+        d_min = d_max = 0.0
+    elif lo_a >= hi_b:
+        anode, cathode, likely = rb["id"], ra["id"], rb["id"]
+        d_min, d_max = lo_a - hi_b, hi_a - lo_b
+    elif lo_b >= hi_a:
+        anode, cathode, likely = ra["id"], rb["id"], ra["id"]
+        d_min, d_max = lo_b - hi_a, hi_b - lo_a
+    else:
+        anode = cathode = OVERLAP
+        likely = None if abs(mid_a - mid_b) < 1e-9 else (ra["id"] if mid_a < mid_b
+                                                          else rb["id"])
+        d_min, d_max = 0.0, max(hi_a - lo_b, hi_b - lo_a)
+    allowed = env["allowed_delta_V"]
+    return {"anode": anode, "cathode": cathode, "likely_anode": likely,
+            "delta_E_V_min": d_min, "delta_E_V_max": d_max,
+            "delta_E_V_mid": abs(mid_a - mid_b) if ra["id"] != rb["id"] else 0.0,
+            "allowed_delta_E_V": allowed,
+            "compatibility": classify(d_min, d_max, allowed),
+            "range_a_V_SCE": (hi_a, lo_a), "range_b_V_SCE": (hi_b, lo_b)}
+
+
+EXPLAIN = {
+    COMPATIBLE: "Even in the worst case the potential difference is within the "
+                "{allowed} commonly allowed {where}.",
+    MARGINAL: "The difference is within the {allowed} commonly allowed {where} only if "
+              "the two alloys sit near the favourable ends of their ranges; in the worst "
+              "case it exceeds it.",
+    INCOMPATIBLE: "Even in the best case the potential difference exceeds the {allowed} "
+                  "commonly allowed {where}.",
+}
+LABEL = {COMPATIBLE: "Compatible", MARGINAL: "Marginal", INCOMPATIBLE: "Incompatible"}
+
+
+def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
+    alloy_a = _apply_state(alloy_a, state_a, "state_a")
+    alloy_b = _apply_state(alloy_b, state_b, "state_b")
+    ra, rb = materials.alloy(alloy_a), materials.alloy(alloy_b)
+    env = materials.environment(environment)
+    c = couple(alloy_a, alloy_b, environment)
+    la, lb = materials._label(ra), materials._label(rb)
+    d_min, d_max, allowed = c["delta_E_V_min"], c["delta_E_V_max"], c["allowed_delta_E_V"]
+    cls = c["compatibility"]
+    where = f"for {env['name'].lower()}"
+    rep = Report()
+    for st, row in ((state_a, ra), (state_b, rb)):
+        if st in ("passive", "active") and row["state"] == "n/a":
+            rep.note(f"{materials.alloy_label(row)} has no passive/active distinction in "
+                     f"the series; the state '{st}' does not change its range.")
+    if c["anode"] == NONE:
+        rep.headline(f"{la} against itself: no galvanic couple (ΔE = 0 V).")
+        rep.para("The same alloy in the same state on both sides drives no galvanic "
+                 "current. Differences in surface state (passive against active), "
+                 "oxygen supply or crevices can still make a cell: set one side's "
+                 "state to active to see that case.")
+    elif c["anode"] == OVERLAP:
+        rep.headline(f"The ranges of {la} and {lb} overlap: either may be the anode; "
+                     f"ΔE is 0 to {units.fmt(d_max, 'V', 2)}.")
+        likely = c["likely_anode"]
+        text = ("Their seawater potential ranges overlap, so the series cannot say which "
+                "one corrodes: it depends on the surface condition of each piece. ")
+        if likely:
+            other = lb if likely == ra["id"] else la
+            text += (f"On mid-range values {materials._label(materials.alloy(likely))} is "
+                     f"slightly more active than {other} "
+                     f"(by {units.fmt(c['delta_E_V_mid'], 'V', 2)}).")
+        rep.para(text)
+    else:
+        an, ca = materials.alloy(c["anode"]), materials.alloy(c["cathode"])
+        rep.headline(f"{materials._label(an)} is the anode and corrodes faster; "
+                     f"{materials._label(ca)} is the cathode. ΔE = "
+                     f"{units.fmt(d_min, '', 2)} to {units.fmt(d_max, 'V', 2)}.")
+        rep.para(f"{materials._label(an)} sits lower in the galvanic series "
+                 f"({_v(materials.potential_range(an['id'], environment)[1])} to "
+                 f"{_v(materials.potential_range(an['id'], environment)[0])} vs SCE) than "
+                 f"{materials._label(ca)}: joined in an electrolyte it gives up electrons "
+                 f"and corrodes faster than it would alone, while {materials._label(ca)} "
+                 "is protected.")
+    allowed_txt = units.fmt(allowed, "V", 2)
+    rep.verdict(VERDICT_CLASS[cls], LABEL[cls],
+                EXPLAIN[cls].format(allowed=allowed_txt, where=where))
+    rep.para("A potential difference tells the direction and the drive, not the rate: a "
+             "small anode on a large cathode (a steel bolt in a stainless plate) "
+             "corrodes fast; a large anode with a small cathode barely notices.")
+    for w in materials.applicability(environment):
+        rep.warn(w)
+    for row in (ra, rb) if ra["id"] != rb["id"] else (ra,):
+        if row["confidence"] == "from-memory":
+            rep.warn(f"The range for {materials._label(row)} is not confirmed against a "
+                     f"published source: {row['locator']}.")
+        if (row["state"] == "passive" and env["id"] != "seawater_flowing"
+                and materials.sibling(row["id"], "active")):
+            rep.warn(f"{materials._label(row)} may lose passivity in crevices, under "
+                     "deposits or in still, oxygen-poor water; then it behaves like its "
+                     "active row. Set its state to active to check that case.")
+        if row["id"] == "galvanized_steel":
+            rep.note("Galvanized steel is represented by its zinc coating; once the zinc "
+                     "is consumed locally the exposed steel follows the carbon-steel row.")
+    sources = {"alloy_a": materials.cite_potential(ra), "alloy_b": materials.cite_potential(rb),
+               "allowed": materials.cite_allowed(env)}
+    for key, row in (("a", ra), ("b", rb)):
+        hi, lo = materials.potential_range(row["id"], environment)
+        rep.row(f"{materials._label(row)}, range vs SCE", f"{_v(lo)} to {_v(hi)}",
+                materials.cite_potential(row), key=f"range_{key}")
+    rep.row("ΔE best case (closest ends)", units.fmt(d_min, "V", 2),
+            "computed: ΔE_min = E_active(cathode) − E_noble(anode), 0 when the ranges "
+            "overlap", key="delta_E_V_min")
+    rep.row("ΔE worst case (farthest ends)", units.fmt(d_max, "V", 2),
+            "computed: ΔE_max = E_noble(cathode) − E_active(anode)", key="delta_E_V_max")
+    rep.row(f"Allowed ΔE, {env['name'].lower()}", allowed_txt, sources["allowed"],
+            key="allowed_delta_E_V")
+    ai_a, ai_b = ra.get("anodic_index_V"), rb.get("anodic_index_V")
+    ai_diff = None
+    if ai_a is not None and ai_b is not None:
+        ai_diff = abs(ai_a - ai_b)
+        rep.row("Anodic-index difference (cross-check)", units.fmt(ai_diff, "V", 2),
+                materials.cite_anodic_index(ra))
+    rows = [r for r in ordered_series(environment) if r["id"] in (ra["id"], rb["id"])]
+    rep.chart("The pair in the series", str(series_svg(rows, "SCE", [ra["id"], rb["id"]])),
+              f"Potential ranges of {la} and {lb}, V vs SCE.")
+    return {
+        "alloy_a": ra["id"], "alloy_b": rb["id"], "environment": env["id"],
+        "anode": c["anode"], "cathode": c["cathode"], "likely_anode": c["likely_anode"],
+        "delta_E_V_min": d_min, "delta_E_V_max": d_max, "delta_E_V_mid": c["delta_E_V_mid"],
+        "allowed_delta_E_V": allowed, "compatibility": cls,
+        "compatibility_explanation": EXPLAIN[cls].format(allowed=allowed_txt, where=where),
+        "range_a_V_SCE": list(c["range_a_V_SCE"]), "range_b_V_SCE": list(c["range_b_V_SCE"]),
+        "anodic_index_difference_V": ai_diff,
+        "sources": sources,
+        "applicability": materials.applicability(environment),
+        "display": rep.to_dict(),
+    }
+
+
+CALCULATORS = [
+    Calculator(
+        name="series",
+        title="Galvanic series",
+        summary="Engineering alloys ranked by corrosion potential in seawater.",
+        intro=("The galvanic series ranks alloys by the potential they take up in "
+               "seawater. Of two joined alloys, the lower one corrodes. Pick two to "
+               "highlight them, and any reference scale to read the potentials on."),
+        fields=[
+            materials.environment_field(),
+            electrodes.reference_field("reference", "Potentials against", "sce"),
+            materials.alloy_field("alloy_a", "Highlight alloy A", "", optional=True),
+            materials.alloy_field("alloy_b", "Highlight alloy B", "", optional=True),
+        ],
+        compute=compute_series,
+        example={"environment": "seawater_flowing", "reference": "sce",
+                 "alloy_a": "316 stainless", "alloy_b": "aluminium 5083"},
+    ),
+    Calculator(
+        name="pair",
+        title="Alloy pair check",
+        summary="Which of two joined alloys corrodes, and whether the pair is acceptable.",
+        intro=("Two alloys in electrical contact and wetted by the same electrolyte form "
+               "a cell. Enter both (generic name or UNS number) and the environment: "
+               "the page names the anode, the potential difference and a verdict."),
+        fields=[
+            materials.alloy_field("alloy_a", "Alloy A", "S31600"),
+            materials.state_field("state_a", "Surface state of A"),
+            materials.alloy_field("alloy_b", "Alloy B", "A95083"),
+            materials.state_field("state_b", "Surface state of B"),
+            materials.environment_field(),
+        ],
+        compute=compute_pair,
+        example={"alloy_a": "316 stainless", "state_a": "auto",
+                 "alloy_b": "aluminium 5083", "state_b": "auto",
+                 "environment": "marine_splash"},
+    ),
+]

@@ -1,0 +1,63 @@
+// Service worker: the whole site, Pyodide included, works offline after one visit.
+//
+// build.py replaces the marker below with {"cache": name, "files": [paths]}:
+// the cache name carries the site's content hash, so every rebuild that
+// changes a file installs a new cache and drops the old ones.
+const BUILD = "__NOBLEGAP_BUILD__";
+
+const CACHE = BUILD.cache;
+const SCOPE = new URL("./", self.location.href);
+const PRECACHE = BUILD.files.map((path) => new URL(path, SCOPE).href);
+
+self.addEventListener("install", (event) => {
+  event.waitUntil(
+    (async () => {
+      const cache = await caches.open(CACHE);
+      // cache: "no-cache" revalidates every HTTP-cache entry with the
+      // server: a file the page has just downloaded costs a 304, and a new
+      // build never mixes in files of the old one.
+      await cache.addAll(PRECACHE.map((url) => new Request(url, { cache: "no-cache" })));
+      await self.skipWaiting();
+    })(),
+  );
+});
+
+self.addEventListener("activate", (event) => {
+  event.waitUntil(
+    (async () => {
+      const names = await caches.keys();
+      await Promise.all(
+        names.filter((name) => name.startsWith("noblegap-") && name !== CACHE).map((name) => caches.delete(name)),
+      );
+      await self.clients.claim();
+    })(),
+  );
+});
+
+// A page URL: a navigation, or a path ending in .html or "/".
+function isPage(request, url) {
+  return request.mode === "navigate" || url.pathname.endsWith(".html") || url.pathname.endsWith("/");
+}
+
+self.addEventListener("fetch", (event) => {
+  const request = event.request;
+  if (request.method !== "GET") return;
+  const url = new URL(request.url);
+  if (url.origin !== self.location.origin) return;
+  event.respondWith(
+    (async () => {
+      const cache = await caches.open(CACHE);
+      if (isPage(request, url)) {
+        // A bookmarked page?inputs=... is the same page; the page script
+        // reads the query itself.
+        const page = new URL(url.pathname.endsWith("/") ? url.pathname + "index.html" : url.pathname, url);
+        const hit = await cache.match(page.href, { ignoreSearch: true });
+        if (hit) return hit;
+      } else {
+        const hit = await cache.match(request);
+        if (hit) return hit;
+      }
+      return fetch(request);
+    })(),
+  );
+});

@@ -1,0 +1,111 @@
+"""Standard potentials and reference electrodes against published values.
+
+E° (25 °C, V vs SHE): source ``crc_echem`` — CRC Handbook "Electrochemical
+Series" as reproduced in OpenStax Chemistry 2e, Appendix L; cross-check
+``lange`` (Lange's Handbook, 15th ed., Table 8.8); temperature coefficients
+``bratsch`` (J. Phys. Chem. Ref. Data 18 (1989), Table 1). Reference
+electrodes: ``bard_faulkner`` (Electrochemical Methods, 2nd ed., Table C.2)
+and ``sawyer`` (Electrochemistry for Chemists, 2nd ed., Ch. 5). Tolerance: half
+a unit of the last printed digit. Values the shared sheet marks as recalled
+(from memory) are checked only for being labelled so, never as hard values.
+"""
+
+import pytest
+
+from noblegap import data, electrodes
+
+
+def _half(value_text):
+    """Half a unit in the last printed decimal of ``value_text``."""
+    decimals = len(value_text.split(".")[1]) if "." in value_text else 0
+    return 0.5 * 10 ** -decimals
+
+
+E0 = data.index("half_reactions")
+REF = data.index("reference_electrodes")
+
+
+@pytest.mark.parametrize("metal, printed", [
+    # CRC Electrochemical Series via OpenStax Chemistry 2e, Appendix L (crc_echem)
+    ("Au", "1.498"), ("Pt", "1.20"), ("Ag", "0.7996"), ("Cu", "0.3419"), ("H2", "0"),
+    ("Pb", "-0.1262"), ("Sn", "-0.1375"), ("Ni", "-0.257"), ("Co", "-0.28"),
+    ("Cd", "-0.4030"), ("Fe", "-0.447"), ("Cr", "-0.744"), ("Zn", "-0.7618"),
+    ("Ti", "-1.630"), ("Al", "-1.662"), ("Mg", "-2.372"),
+])
+def test_crc_appendix_l_standard_potential(metal, printed):
+    # crc_echem, Appendix L
+    row = E0[metal]
+    assert row["source_id"] == "crc_echem"
+    assert row["E0_V_SHE"] == pytest.approx(float(printed), abs=_half(printed))
+
+
+@pytest.mark.parametrize("metal, n", [
+    # CRC Appendix L (crc_echem): electrons transferred in each half-reaction
+    ("Au", 3), ("Pt", 2), ("Ag", 1), ("Cu", 2), ("Pb", 2), ("Sn", 2), ("Ni", 2), ("Co", 2),
+    ("Cd", 2), ("Fe", 2), ("Cr", 3), ("Zn", 2), ("Ti", 2), ("Al", 3), ("Mg", 2),
+])
+def test_crc_appendix_l_electrons(metal, n):
+    assert E0[metal]["n"] == n
+
+
+@pytest.mark.parametrize("metal, printed", [
+    # Lange's Handbook, 15th ed., Table 8.8 (lange) — cross-check values
+    ("Au", "1.52"), ("Ag", "0.799"), ("Cu", "0.340"), ("Pb", "-0.126"), ("Sn", "-0.137"),
+    ("Ni", "-0.257"), ("Cd", "-0.403"), ("Fe", "-0.44"), ("Cr", "-0.74"), ("Zn", "-0.762"),
+    ("Al", "-1.676"), ("Mg", "-2.356"),
+])
+def test_lange_table_8_8_cross_check(metal, printed):
+    # lange, Table 8.8
+    row = E0[metal]
+    assert row["cross_check_source_id"] == "lange"
+    assert row["cross_check_V"] == pytest.approx(float(printed), abs=_half(printed))
+
+
+@pytest.mark.parametrize("metal, printed", [
+    # Bratsch 1989, Table 1 (bratsch): dE°/dT in mV/K
+    ("Cu", "0.011"), ("Zn", "0.119"),
+])
+def test_bratsch_table_1_temperature_coefficient(metal, printed):
+    # bratsch, Table 1
+    row = E0[metal]
+    assert row["dEdT_source_id"] == "bratsch"
+    assert row["dE0dT_mV_per_K"] == pytest.approx(float(printed), abs=_half(printed))
+
+
+def test_recalled_values_are_labelled_from_memory():
+    # The shared sheet marks Pt cross-check 1.18 and Ag dE°/dT −0.989 as recalled.
+    assert E0["Pt"]["cross_check_source_id"] == "from_memory"
+    assert E0["Ag"]["dEdT_confidence"] == "from-memory"
+    assert REF["ag_agcl_seawater"]["confidence"] == "from-memory"
+    assert REF["cse"]["dEdT_confidence"] == "from-memory"
+
+
+@pytest.mark.parametrize("ref, source, printed", [
+    # Bard & Faulkner, 2nd ed., Table C.2 (bard_faulkner); Sawyer, 2nd ed., Ch. 5 (sawyer)
+    ("sce", "bard_faulkner", "0.2412"),
+    ("ag_agcl_sat_kcl", "bard_faulkner", "0.197"),
+    ("ag_agcl_3m_kcl", "sawyer", "0.210"),
+    ("ag_agcl_01m_kcl", "sawyer", "0.2881"),
+    ("cse", "sawyer", "0.316"),
+])
+def test_reference_electrode_potential_vs_she(ref, source, printed):
+    row = REF[ref]
+    assert row["source_id"] == source
+    assert row["E_V_SHE"] == pytest.approx(float(printed), abs=_half(printed))
+    assert electrodes.reference_potential(ref)[0] == pytest.approx(float(printed),
+                                                                   abs=_half(printed))
+
+
+@pytest.mark.parametrize("ref, printed", [
+    # Bard & Faulkner, 2nd ed., Table C.2 (bard_faulkner): SCE −0.67, Ag/AgCl sat. −1.0 mV/K
+    ("sce", "-0.67"), ("ag_agcl_sat_kcl", "-1.0"),
+])
+def test_bard_faulkner_reference_temperature_coefficient(ref, printed):
+    row = REF[ref]
+    assert row["dEdT_source_id"] == "bard_faulkner"
+    assert row["dEdT_mV_per_K"] == pytest.approx(float(printed), abs=_half(printed))
+
+
+def test_she_is_zero_by_definition():
+    # crc_echem: E°(H+/H2) = 0 at every temperature by convention
+    assert electrodes.reference_potential("she", 350.0)[0] == 0.0
