@@ -354,3 +354,19 @@ def test_exposed_fraction_never_exceeds_one_in_results(a, b, tf):
               breakdown_a=str(a), breakdown_b=str(b), design_life=f"{tf} year")
     assert 0 <= res["fc_initial"] <= res["fc_final"] <= 1.0
     assert res["fc_initial"] <= res["fc_mean"] <= res["fc_final"] + 1e-12
+
+
+def test_same_alloy_on_both_sides_counts_no_cathode():
+    res = run(coated="C95800", other="C95800", holiday_count="", holiday_diameter="",
+              inspected_area="")
+    assert res["delta_E_V"] == 0 and res["cathode_area_m2"] == 0.0
+    assert res["anode_current_density_A_m2"] == pytest.approx(res["i_limit_A_m2"])
+    assert any("no galvanic driving force" in w for w in res["display"]["warnings"])
+
+
+def test_timeline_runs_over_the_design_life():
+    res = run(design_life="20 year")
+    times = [p["t_yr"] for p in res["timeline"]]
+    assert times[0] == 0 and times[-1] == pytest.approx(20.0)
+    pens = [p["penetration_mm"] for p in res["timeline"]]
+    assert pens == sorted(pens)

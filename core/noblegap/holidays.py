@@ -583,7 +583,6 @@ def _report(v):
     coated_row, other_row = v["coated_row"], v["other_row"]
     side, as_built = v["coated_side"], v["as_built"]
     tf_yr, thickness = v["tf_yr"], v["thickness"]
-    f0, b_yr = v["f0"], v["b_yr"]
     env = v["env"]
     life = units.fmt(tf_yr, "years", 3)
     th = units.fmt(thickness * 1e3, "mm", 3)
@@ -613,12 +612,13 @@ def _report(v):
                 f"{life} (computed below).")
 
     role_c = "anode" if r["coated_is_anode"] else "cathode"
-    rep.para(f"In {env['name'].lower()}, {coated_row['name']} (the coated member, "
-             f"{units.fmt(r['mid_coated_V_SCE'], 'V', 3)} vs SCE mid-range) is the "
-             f"{role_c} and {other_row['name']} "
-             f"({units.fmt(r['mid_other_V_SCE'], 'V', 3)}) the "
-             f"{'cathode' if role_c == 'anode' else 'anode'}. The galvanic series decides "
-             "this; the coated side only decides which member's surface the coating covers.")
+    if r["delta_E_V"] > 0:
+        rep.para(f"In {env['name'].lower()}, {coated_row['name']} (the coated member, "
+                 f"{units.fmt(r['mid_coated_V_SCE'], 'V', 3)} vs SCE mid-range) is the "
+                 f"{role_c} and {other_row['name']} "
+                 f"({units.fmt(r['mid_other_V_SCE'], 'V', 3)}) the "
+                 f"{'cathode' if role_c == 'anode' else 'anode'}. The galvanic series decides "
+                 "this; the coated side only decides which member's surface the coating covers.")
     if side in ("anode", "cathode") and side != as_built:
         rep.warn(f"You entered {coated_row['name']} as the coated member, but it is the "
                  f"{as_built} of this couple. The highlighted scenario ('{what}') moves the "

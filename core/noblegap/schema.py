@@ -56,6 +56,8 @@ class Field:
     def allowed_text(self):
         if self.kind == CHOICE:
             return ", ".join(cid for cid, _ in self.choice_list())
+        if self.kind == TEXT:
+            return ""
         parts = []
         if self.min is not None:
             parts.append(("≥ " if self.min_inclusive else "> ") + self._show(self.min))
@@ -66,13 +68,14 @@ class Field:
             ex = units.KINDS[self.quantity][2]
             return f"{rng} ({ex})" if rng else f"units {ex}"
         if self.kind == INTEGER:
-            return f"a whole number {rng}".strip()
+            return f"a whole number {rng}".replace("1e+06", "1 000 000").strip()
         return rng or "a number"
 
     def _show(self, si_value):
         if self.kind == QUANTITY and self.unit:
             si = units.KINDS[self.quantity][0]
-            return units.fmt(units.convert(si_value, si, self.unit), self.unit, 4)
+            shown = units.convert(si_value, si, self.unit)
+            return f"{shown:.4g} {units.symbol(self.unit)}".replace("-", "\u2212")
         return f"{si_value:g}"
 
     def parse(self, raw):

