@@ -99,6 +99,20 @@ TIMING_INIT_SCRIPT = """
     return true;
   };
   if (!watch()) document.addEventListener("DOMContentLoaded", watch);
+  // The engine worker's own phase marks, to see where start-up time goes.
+  const NativeWorker = window.Worker;
+  window.Worker = class extends NativeWorker {
+    constructor(...args) {
+      super(...args);
+      marks.workerCreated = performance.now();
+      marks.phases = {};
+      this.addEventListener("message", (event) => {
+        const msg = event.data || {};
+        if (msg.type === "progress") marks.phases[msg.phase] = performance.now();
+        if (msg.type === "ready") marks.workerTimings = msg.timings || null;
+      });
+    }
+  };
 })();
 """
 
@@ -257,6 +271,8 @@ def main(argv=None) -> int:
             page, marks = visit_calc(ctx, base + args.page, args.timeout)
             results["ready_ms"] = marks.get("ready")
             results["first_live_ms"] = marks.get("firstLive")
+            results["first_phases"] = {"worker created": marks.get("workerCreated"),
+                                       **(marks.get("phases") or {})}
             # let the service worker finish precaching before counting bytes
             page.evaluate("async () => { await navigator.serviceWorker.ready; }")
             deadline = time.monotonic() + args.timeout
@@ -279,6 +295,8 @@ def main(argv=None) -> int:
             page, marks = visit_calc(ctx, base + args.page, args.timeout)
             results["second_ready_ms"] = marks.get("ready")
             results["second_first_live_ms"] = marks.get("firstLive")
+            results["second_phases"] = {"worker created": marks.get("workerCreated"),
+                                        **(marks.get("phases") or {})}
             results["second_visit_bytes"] = counter.bytes
             results["second_visit_requests"] = counter.requests
             page.close()
@@ -296,6 +314,9 @@ def main(argv=None) -> int:
     print(f"engine ready, first visit          {r['ready_ms']:9.0f} ms")
     if r["first_live_ms"] is not None:
         print(f"first live result, first visit     {r['first_live_ms']:9.0f} ms")
+    for key, label in (("first_phases", "first visit"), ("second_phases", "second visit")):
+        phases = ", ".join(f"{k} {v:.0f}" for k, v in r[key].items() if v is not None)
+        print(f"  {label} phases (ms since navigation): {phases}")
     print(f"engine ready, second visit         {r['second_ready_ms']:9.0f} ms")
     if page_ms:
         print(f"input-to-DOM latency (page)  p50 {pct(page_ms, 50):7.1f} ms   p95 {pct(page_ms, 95):7.1f} ms")

@@ -4,7 +4,7 @@ import pytest
 from hypothesis import given, settings, strategies as st
 
 from noblegap import api, data, fasteners, materials, rates
-from noblegap.errors import InputError, MissingDataError
+from noblegap.errors import MissingDataError
 
 from fastener_cases import CASES
 
@@ -339,3 +339,33 @@ def test_kinetics_table_sources_resolve_and_values_are_physical():
         for env in row["environments"].split(";"):
             materials.environment(env)
     assert len(data.table("kinetics")) == 15   # pinned: edits are deliberate
+
+
+# ---- the verdict rule ---------------------------------------------------------
+
+def _life(years):
+    return rates.years_to_consume(1e-3, 1e-3 / years) if years else rates.years_to_consume(1e-3, 0.0)
+
+
+@pytest.mark.parametrize("dE, g_years, cls", [
+    (0.10, 100.0, fasteners.SOUND),    # within the limit, slow attack
+    (0.50, 5.0, fasteners.REJECT),     # beyond the limit, fast attack
+    (0.50, 100.0, fasteners.WATCH),    # beyond the limit, area ratio spreads it
+    (0.10, 5.0, fasteners.WATCH),      # within the limit, pessimistic catchment bound
+    (0.50, None, fasteners.WATCH),     # beyond the limit, no galvanic rate at all
+])
+def test_judge_classes(dE, g_years, cls):
+    got, reason = fasteners.judge(dE, 0.15, _life(50.0), _life(g_years), 25.0)
+    assert got == cls and reason
+
+
+def test_judge_isolated_is_sound_and_flags_short_own_life():
+    cls, reason = fasteners.judge(0.5, 0.15, _life(2.0), _life(None), 25.0, isolated=True)
+    assert cls == fasteners.SOUND and "own corrosion" in reason
+
+
+def test_isolation_mitigation_is_sound():
+    r = run()
+    m = {x["id"]: x for x in r["mitigations"]}
+    assert m["isolate"]["verdict"] == "sound"
+    assert m["isolate"]["galvanic_life_text"] == "no galvanic attack"

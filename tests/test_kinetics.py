@@ -4,7 +4,6 @@ numpy is used here only as an independent reference: a dense grid search of
 the current balance, written without the solver's bisection.
 """
 
-import math
 
 import numpy as np
 import pytest

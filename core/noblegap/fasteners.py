@@ -236,44 +236,45 @@ def _life(allowance_m, i_A_m2, rho, EW):
 
 
 def judge(dE_max_V, allowed_V, life_total, life_galvanic, design_life_yr, isolated=False):
-    """Verdict class and one-line reason.
+    """Verdict class and one-line reason, on the couple's (galvanic) attack.
 
-    sound  — worst-case ΔV within the allowed ΔV and the allowance outlasts
-             the design life;
-    reject — ΔV beyond the allowed ΔV and the couple's own (galvanic) attack
-             consumes the allowance within the design life;
-    watch  — anything between (ΔV beyond the limit but a large anode that
-             spreads the attack; or a short life driven by the anode's own
-             corrosion; or a catchment upper bound on a passive anode).
+    sound  — worst-case ΔV within the allowed ΔV and the galvanic attack
+             leaves the allowance for the design life (or no galvanic path);
+    reject — ΔV beyond the allowed ΔV and the galvanic attack consumes the
+             allowance within the design life;
+    watch  — one of the two fails: ΔV beyond the limit but an area ratio that
+             spreads the attack, or ΔV within the limit but a catchment bound
+             (pessimistic for a passive anode) that is short.
+
+    The anode's own corrosion is not a galvanic effect (the same alloy on
+    both sides is "sound" however fast it corrodes); when it alone would use
+    the allowance within the design life the reason says so.
     """
     def lasts(life):
         return life.status != rates.LIFE_FINITE or life.years >= design_life_yr
 
+    own = ("" if lasts(life_total) else
+           f"; the anode's total loss including its own corrosion uses the allowance in "
+           f"{life_total.text} — check that separately")
     if isolated:
-        if lasts(life_total):
-            return SOUND, ("no galvanic current once isolated; the anode's own corrosion "
-                           f"leaves the allowance for {life_total.text}")
-        return WATCH, ("no galvanic current once isolated, but the anode's own corrosion "
-                       f"in this model uses the allowance in {life_total.text}")
+        return SOUND, "no galvanic current once the metallic path is broken" + own
     dv_ok = dE_max_V <= allowed_V + 1e-12
-    if dv_ok and lasts(life_total):
+    g_ok = lasts(life_galvanic)
+    if dv_ok and g_ok:
         return SOUND, (f"worst-case ΔV {dE_max_V:.2f} V is within the {allowed_V:.2f} V "
-                       f"allowed here and the allowance lasts {life_total.text}")
-    if not dv_ok and not lasts(life_galvanic):
+                       f"allowed here and the couple's attack needs {life_galvanic.text} to "
+                       "use the allowance" + own)
+    if not dv_ok and not g_ok:
         return REJECT, (f"ΔV up to {dE_max_V:.2f} V exceeds the {allowed_V:.2f} V allowed, "
                         f"and the galvanic attack alone consumes the allowance in "
                         f"{life_galvanic.text} (design life {design_life_yr:g} years)")
     if not dv_ok:
         return WATCH, (f"ΔV up to {dE_max_V:.2f} V exceeds the {allowed_V:.2f} V allowed, "
                        f"but the area ratio spreads the attack: the couple alone needs "
-                       f"{life_galvanic.text} to use the allowance")
-    if not lasts(life_galvanic):
-        return WATCH, (f"ΔV {dE_max_V:.2f} V is within the {allowed_V:.2f} V allowed; the "
-                       f"catchment bound ({life_galvanic.text} to use the allowance) assumes "
-                       "an active anode and is pessimistic for a passive one — inspect")
-    return WATCH, (f"ΔV {dE_max_V:.2f} V is within the {allowed_V:.2f} V allowed, but the "
-                   f"anode's total loss (mostly its own corrosion) uses the allowance in "
-                   f"{life_total.text}, short of the {design_life_yr:g}-year design life")
+                       f"{life_galvanic.text} to use the allowance" + own)
+    return WATCH, (f"ΔV {dE_max_V:.2f} V is within the {allowed_V:.2f} V allowed; the "
+                   f"catchment bound ({life_galvanic.text} to use the allowance) assumes "
+                   "an active anode and is pessimistic for a passive one — inspect")
 
 
 def evaluate(fastener_id, plate_id, env_id, *, kind, diameter_m, count, plate_area_m2,
@@ -415,6 +416,7 @@ def alternatives(plate_id, env_id, geometry, current_fastener=None, limit=5):
             "galvanic_penetration_mm_per_yr": gov["galvanic_penetration_mm_per_yr"] if gov else 0.0,
             "years_to_allowance": gov["years_to_allowance"] if gov else None,
             "life_text": gov["life_text"] if gov else "no galvanic attack",
+            "galvanic_life_text": gov["galvanic_life_text"] if gov else "no galvanic attack",
             "method": g["method"], "catchment_fallback": fallback,
             "current": fid == current_fastener,
         })
@@ -428,8 +430,11 @@ def _summary(ev):
     if gov is None:
         return {"penetration_mm_per_yr": 0.0, "galvanic_penetration_mm_per_yr": 0.0,
                 "years_to_allowance": None, "life_text": "no galvanic attack",
+                "galvanic_years": None, "galvanic_life_text": "no galvanic attack",
                 "verdict": VERDICT_LABEL[SOUND]}
     return {"penetration_mm_per_yr": gov["penetration_mm_per_yr"],
+            "galvanic_years": gov["galvanic_years"],
+            "galvanic_life_text": gov["galvanic_life_text"],
             "galvanic_penetration_mm_per_yr": gov["galvanic_penetration_mm_per_yr"],
             "years_to_allowance": gov["years_to_allowance"], "life_text": gov["life_text"],
             "verdict": VERDICT_LABEL[gov["verdict"]]}
@@ -494,6 +499,7 @@ def mitigations(fastener_id, plate_id, env_id, geometry, best_alternative=None):
                         best_alternative["galvanic_penetration_mm_per_yr"],
                     "years_to_allowance": best_alternative["years_to_allowance"],
                     "life_text": best_alternative["life_text"],
+                    "galvanic_life_text": best_alternative["galvanic_life_text"],
                     "verdict": best_alternative["verdict"]})
     return out
 
@@ -505,10 +511,15 @@ def mitigations(fastener_id, plate_id, env_id, geometry, best_alternative=None):
 _FAST_FILL, _PLATE_FILL = "#3b6ea5", "#b5651d"
 
 
+def _tick(v, digits=2):
+    text = f"{v:.{digits}f}"
+    return text[1:] if text.startswith("-") and float(text) == 0 else text
+
+
 def range_chart(ev):
     """Both potential ranges on one axis, ΔV (worst case) and the allowed ΔV."""
     pc, rows = ev["pc"], ev["rows"]
-    W, H = 640, 220
+    W, H = 640, 240
     svg = Svg(W, H, "Potential ranges of fastener and plate")
     (fn, fa), (pn, pa) = pc["ranges"]["fastener"], pc["ranges"]["plate"]
     lo = min(fa, pa) - 0.1
@@ -516,29 +527,33 @@ def range_chart(ev):
     gov = ev["governing"]
     if gov is not None:
         hi = max(hi, gov["E_anode_V_SCE"] + ev["allowed"] + 0.05)
-    x = scale(lo, hi, 60, W - 30)
-    y_axis = 170
-    svg.line(60, y_axis, W - 30, y_axis, stroke="#555")
+    x = scale(lo, hi, 30, W - 30)
+    y_axis = 190
+    svg.line(30, y_axis, W - 30, y_axis, stroke="#555")
     for t in nice_ticks(lo, hi, 7):
         svg.line(x(t), y_axis, x(t), y_axis + 5, stroke="#555")
-        svg.text(x(t), y_axis + 18, f"{t:.2f}", size=11, anchor="middle")
-    svg.text((60 + W - 30) / 2, y_axis + 38, "free-corrosion potential, V vs SCE "
+        svg.text(x(t), y_axis + 18, _tick(t), size=11, anchor="middle")
+    svg.text(W / 2, y_axis + 38, "free-corrosion potential, V vs SCE "
              "(more active ← → more noble)", size=11, anchor="middle", fill="#444")
     for i, (role, (n, a), fill) in enumerate((("fastener", (fn, fa), _FAST_FILL),
                                               ("plate", (pn, pa), _PLATE_FILL))):
-        yy = 40 + i * 45
-        svg.rect(x(a), yy, max(x(n) - x(a), 3), 22, fill=fill, rx=3, opacity=0.85)
-        svg.text(x(a) - 6, yy + 15, f"{role}: {rows[role]['name']}", size=11, anchor="end")
+        yy = 50 + i * 50
+        svg.rect(x(a), yy, max(x(n) - x(a), 3), 20, fill=fill, rx=3, opacity=0.85)
+        mid = (x(a) + x(n)) / 2
+        anchor = "start" if mid < W * 0.3 else ("end" if mid > W * 0.7 else "middle")
+        lx = x(a) if anchor == "start" else (x(n) if anchor == "end" else mid)
+        svg.text(lx, yy - 5, f"{role}: {rows[role]['name']}", size=11, anchor=anchor)
     if gov is not None:
         xa, xc = x(gov["E_anode_V_SCE"]), x(gov["E_cathode_V_SCE"])
-        svg.line(xa, 140, xc, 140, stroke="#a11", width=2)
-        svg.line(xa, 134, xa, 146, stroke="#a11", width=2)
-        svg.line(xc, 134, xc, 146, stroke="#a11", width=2)
-        svg.text((xa + xc) / 2, 132, f"worst-case ΔV {gov['dE_max_V']:.2f} V", size=11,
+        svg.line(xa, 160, xc, 160, stroke="#a11", width=2)
+        svg.line(xa, 154, xa, 166, stroke="#a11", width=2)
+        svg.line(xc, 154, xc, 166, stroke="#a11", width=2)
+        svg.text((xa + xc) / 2, 152, f"worst-case ΔV {gov['dE_max_V']:.2f} V", size=11,
                  anchor="middle", fill="#a11", weight="bold")
         xl = x(gov["E_anode_V_SCE"] + ev["allowed"])
-        svg.line(xl, 30, xl, y_axis, stroke="#2a7", width=1.5, dash="5,4")
-        svg.text(xl + 4, 26, f"allowed ΔV {ev['allowed']:.2f} V", size=11, fill="#2a7")
+        svg.line(xl, 24, xl, y_axis, stroke="#2a7", width=1.5, dash="5,4")
+        svg.text(xl + 4, 20, f"allowed ΔV {ev['allowed']:.2f} V above the anode's active end",
+                 size=11, fill="#2a7", anchor="start" if xl < W * 0.55 else "end")
     return svg
 
 
@@ -548,43 +563,54 @@ def evans_chart(ev):
     kin = gov["_kinetics"]
     ea, ec = kin["electrodes"]
     sol = kin["solution"]
-    lo = min(ea.E_corr_V, ec.E_corr_V) - 0.25
-    hi = max(ea.E_corr_V, ec.E_corr_V) + 0.15
-    n = 120
+    lo = min(ea.E_corr_V, ec.E_corr_V) - 0.2
+    hi = max(ea.E_corr_V, ec.E_corr_V) + 0.1
+    n = 160
     Es = [lo + (hi - lo) * k / n for k in range(n + 1)]
-    curves = []
-    for e, colour, label in ((ea, _PLATE_FILL if gov["anode_role"] == "plate" else _FAST_FILL,
-                              "anode"),
-                             (ec, _FAST_FILL if gov["anode_role"] == "plate" else _PLATE_FILL,
-                              "cathode")):
-        A = e.area_m2 if e.area_m2 > 0 else 1e-12
-        an = [(math.log10(max(A * e.anodic(E), 1e-15)), E) for E in Es]
-        ca = [(math.log10(max(A * e.cathodic(E), 1e-15)), E) for E in Es]
-        curves.append((an, colour, f"{label} {e.name}: metal dissolution", None))
-        curves.append((ca, colour, f"{label} {e.name}: oxygen reduction", "5,4"))
+    c_anode = _PLATE_FILL if gov["anode_role"] == "plate" else _FAST_FILL
+    c_cath = _FAST_FILL if gov["anode_role"] == "plate" else _PLATE_FILL
     I_c = max(ea.area_m2 * ea.anodic(sol.E_couple_V), 1e-15)
-    xs = [p[0] for c in curves for p in c[0]] + [math.log10(I_c)]
-    xlo = max(min(xs), math.log10(I_c) - 6)
-    xhi = max(xs)
-    W, H = 640, 320
+    I_max = max(ea.i_limit_A_m2 * (ea.area_m2 + ec.area_m2), I_c)
+    xhi = math.ceil(math.log10(I_max) + 1)
+    I_min = min(e.area_m2 * e.i_corr_A_m2 for e in (ea, ec) if e.area_m2 > 0)
+    xlo = math.floor(min(math.log10(I_min), math.log10(I_c)) - 1)
+    curves = []
+    for e, colour in ((ea, c_anode), (ec, c_cath)):
+        if e.area_m2 <= 0:
+            continue
+        an = [(math.log10(max(e.area_m2 * e.anodic(E), 1e-300)), E) for E in Es]
+        ca = [(math.log10(max(e.area_m2 * e.cathodic(E), 1e-300)), E) for E in Es]
+        curves.append((an, colour, None))
+        curves.append((ca, colour, "5,4"))
+    W, H = 640, 340
     svg = Svg(W, H, "Polarization curves and couple point")
     x = scale(xlo, xhi, 60, W - 20)
-    y = scale(lo, hi, H - 40, 20)
+    y = scale(lo, hi, H - 40, 60)
     svg.line(60, H - 40, W - 20, H - 40, stroke="#555")
-    svg.line(60, 20, 60, H - 40, stroke="#555")
-    for t in nice_ticks(xlo, xhi, 7):
-        svg.text(x(t), H - 24, f"1e{t:g}", size=10, anchor="middle")
+    svg.line(60, 60, 60, H - 40, stroke="#555")
+    for t in range(int(xlo), int(xhi) + 1):
+        svg.line(x(t), H - 40, x(t), H - 36, stroke="#555")
+        svg.text(x(t), H - 24, f"1e{t}", size=10, anchor="middle")
     for t in nice_ticks(lo, hi, 6):
-        svg.text(54, y(t) + 4, f"{t:.2f}", size=10, anchor="end")
+        svg.text(54, y(t) + 4, _tick(t), size=10, anchor="end")
     svg.text((60 + W - 20) / 2, H - 6, "current, A (log scale)", size=11, anchor="middle")
-    svg.text(8, 14, "E, V vs SCE", size=11)
-    for pts, colour, _label, dash in curves:
-        clipped = [(x(max(px, xlo)), y(py)) for px, py in pts if px >= xlo]
-        if len(clipped) > 1:
-            svg.polyline(clipped, stroke=colour, width=2, dash=dash)
+    svg.text(8, 52, "E, V vs SCE", size=11)
+    for pts, colour, dash in curves:
+        seg = [(x(px), y(py)) for px, py in pts if xlo <= px <= xhi]
+        if len(seg) > 1:
+            svg.polyline(seg, stroke=colour, width=2, dash=dash)
     svg.circle(x(math.log10(I_c)), y(sol.E_couple_V), 5, fill="#a11")
     svg.text(x(math.log10(I_c)) - 8, y(sol.E_couple_V) - 8,
              f"couple {sol.E_couple_V:.3f} V", size=11, anchor="end", fill="#a11")
+    # legend
+    legend = ((c_anode, None, f"anode ({ea.name}) metal dissolution"),
+              (c_anode, "5,4", f"anode ({ea.name}) oxygen reduction"),
+              (c_cath, None, f"cathode ({ec.name}) metal dissolution"),
+              (c_cath, "5,4", f"cathode ({ec.name}) oxygen reduction"))
+    for k, (colour, dash, label) in enumerate(legend):
+        lx, ly = 70 + (k % 2) * 280, 14 + (k // 2) * 18
+        svg.line(lx, ly, lx + 24, ly, stroke=colour, width=2, dash=dash)
+        svg.text(lx + 30, ly + 4, label, size=10)
     return svg
 
 
@@ -659,8 +685,11 @@ def compute_fastener(fastener, plate, environment, fastener_kind, diameter, coun
                  f"{_m2(gov['A_anode_m2'])} (area ratio A_c/A_a = "
                  f"{units.fmt(gov['area_ratio'])}). "
                  + ("A small anode with a large cathode concentrates the attack."
-                    if gov["area_ratio"] > 1 else
-                    "A large anode with a small cathode spreads the attack thinly."))
+                    if gov["area_ratio"] > 1.5 else
+                    "A large anode with a small cathode spreads the attack thinly."
+                    if gov["area_ratio"] < 0.67 else
+                    "The two areas are comparable, so the area ratio neither helps nor "
+                    "hurts much."))
         rep.para(f"Of the anode's {units.fmt(gov['penetration_mm_per_yr'], 'mm/yr')}, the "
                  f"couple adds {units.fmt(gov['galvanic_penetration_mm_per_yr'], 'mm/yr')}; "
                  f"the rest ({units.fmt(gov['own_penetration_mm_per_yr'], 'mm/yr')}) is the "
@@ -737,10 +766,11 @@ def compute_fastener(fastener, plate, environment, fastener_kind, diameter, coun
               note="Every fastener alloy in the table re-evaluated with the same geometry; "
                    "ranked by class, then galvanic rate.")
     rep.table("Mitigations and their computed effect",
-              ["mitigation", "galvanic mm/yr", "anode total mm/yr", "life", "class", "how"],
+              ["mitigation", "galvanic mm/yr", "allowance lasts (galvanic)",
+               "anode total mm/yr", "class", "how"],
               [[m["title"], units.fmt(m.get("galvanic_penetration_mm_per_yr")),
-                units.fmt(m.get("penetration_mm_per_yr")),
-                m.get("life_text", "—"), m.get("verdict", "—"), m["how"]] for m in mits],
+                m.get("galvanic_life_text", "—"), units.fmt(m.get("penetration_mm_per_yr")),
+                m.get("verdict", "—"), m["how"]] for m in mits],
               note="Galvanic = what the couple adds; total includes the anode's own "
                    "corrosion in the same model.")
     rep.chart("Potential ranges", str(range_chart(ev)),
