@@ -66,7 +66,6 @@ LOCK_NAME = "noblegap-lock.json"
 MANIFEST_NAME = "build-manifest.json"
 SW_NAME = "sw.js"
 SW_MARKER = '"__NOBLEGAP_BUILD__"'
-PLACEHOLDER_PREFIX = "_placeholder_"
 
 # Files of a PyPI wheel that the site never imports.
 WHEEL_DROP = {"pint": ["pint/testsuite/"]}
@@ -462,14 +461,9 @@ def import_core():
 
 
 def _template(env, name: str):
-    """Template ``name``, or its ``_placeholder_`` stand-in while it is absent."""
-    if (TEMPLATES / name).exists():
-        return env.get_template(name)
-    placeholder = PLACEHOLDER_PREFIX + name
-    if (TEMPLATES / placeholder).exists():
-        log(f"warning: site_src/templates/{name} is missing; using {placeholder}")
-        return env.get_template(placeholder)
-    raise BuildError(f"site_src/templates/{name} is missing")
+    if not (TEMPLATES / name).exists():
+        raise BuildError(f"site_src/templates/{name} is missing")
+    return env.get_template(name)
 
 
 def render_pages(site: Path, site_globals: dict, api) -> list[str]:
@@ -556,7 +550,7 @@ def copy_static(site: Path) -> None:
     if not STATIC.exists():
         return
     for p in sorted(STATIC.rglob("*")):
-        if not p.is_file() or p.name.startswith(".") or p.name.startswith(PLACEHOLDER_PREFIX):
+        if not p.is_file() or p.name.startswith("."):
             continue
         rel = p.relative_to(STATIC)
         if rel.as_posix() == SW_NAME:
@@ -615,13 +609,19 @@ def build(site: Path = SITE, offline: bool = False, compile_pyc: bool = True) ->
     if tmp.exists():
         shutil.rmtree(tmp)
     tmp.mkdir(parents=True)
-    (tmp / "pyodide").mkdir()
-    for name in pin["site_files"]:
-        shutil.copyfile(pyodide_dir / name, tmp / "pyodide" / name)
-    write_lock(pyodide_dir, wheels, tmp / PACKAGES_DIR)
-    render_pages(tmp, site_globals, api)
-    copy_static(tmp)
-    manifest = write_manifest_and_sw(tmp, inputs, pin)
+    try:
+        (tmp / "pyodide").mkdir()
+        for name in pin["site_files"]:
+            shutil.copyfile(pyodide_dir / name, tmp / "pyodide" / name)
+        write_lock(pyodide_dir, wheels, tmp / PACKAGES_DIR)
+        # (A build-time memory snapshot would be made here, from
+        # tmp/pyodide and tmp/packages, before the manifest lists the files.)
+        render_pages(tmp, site_globals, api)
+        copy_static(tmp)
+        manifest = write_manifest_and_sw(tmp, inputs, pin)
+    except BaseException:
+        shutil.rmtree(tmp, ignore_errors=True)
+        raise
     if site.exists():
         shutil.rmtree(site)
     tmp.rename(site)

@@ -222,6 +222,10 @@ def main(argv=None) -> int:
                         help="format of the edited values; {n} counts from 500")
     parser.add_argument("--edits", type=int, default=50)
     parser.add_argument("--timeout", type=float, default=120.0, help="seconds per wait")
+    parser.add_argument("--markdown", action="store_true",
+                        help="also print the figures as a Markdown table (for the README)")
+    parser.add_argument("--site", type=Path, default=None,
+                        help="benchmark this built site folder instead of site/ (implies --no-build)")
     parser.add_argument("--no-build", action="store_true",
                         help="benchmark site/ as it is, even if an input changed since it was built")
     args = parser.parse_args(argv)
@@ -229,7 +233,10 @@ def main(argv=None) -> int:
     from playwright.sync_api import sync_playwright
 
     build = load_build()
-    site = build.SITE if args.no_build else ensure_site(build)
+    if args.site is not None:
+        site = args.site.resolve()
+    else:
+        site = build.SITE if args.no_build else ensure_site(build)
     bench_dir = Path(tempfile.mkdtemp(prefix="noblegap-bench-"))
     (bench_dir / "boot.html").write_text(BOOT_HTML)
     (bench_dir / "boot.js").write_text(BOOT_JS)
@@ -328,6 +335,24 @@ def main(argv=None) -> int:
     print(f"  engine ready / bare boot          {r['ready_ms'] / r['bare_boot_ms']:.2f}")
     print(f"  second-visit ready / first-visit  {r['second_ready_ms'] / r['ready_ms']:.2f}")
     print(f"  second-visit bytes / first-visit  {r['second_visit_bytes'] / max(1, r['first_visit_bytes']):.4f}")
+    if args.markdown:
+        rows = [
+            ("Bare Pyodide boot, cold", f"{r['bare_boot_ms'] / 1000:.2f} s"),
+            ("Engine ready, first visit", f"{r['ready_ms'] / 1000:.2f} s"),
+            ("First live result, first visit",
+             f"{r['first_live_ms'] / 1000:.2f} s" if r["first_live_ms"] is not None else "n/a"),
+            ("Engine ready, second visit (offline cache)", f"{r['second_ready_ms'] / 1000:.2f} s"),
+            ("Input to result on screen, p50 / p95",
+             f"{pct(page_ms or wall_ms, 50):.0f} / {pct(page_ms or wall_ms, 95):.0f} ms"),
+            ("Bytes, first visit", f"{r['first_visit_bytes'] / 1e6:.1f} MB"),
+            ("Bytes, second visit", f"{r['second_visit_bytes'] / 1e3:.1f} kB"),
+            ("Engine ready / bare boot", f"{r['ready_ms'] / r['bare_boot_ms']:.2f}"),
+        ]
+        print()
+        print("| measure | value |")
+        print("| --- | --- |")
+        for name, value in rows:
+            print(f"| {name} | {value} |")
     if blocked:
         print(f"{len(blocked)} request(s) to other origins (not resolved): {blocked[:5]}")
         return 1

@@ -29,7 +29,8 @@ self.addEventListener("activate", (event) => {
       await Promise.all(
         names.filter((name) => name.startsWith("noblegap-") && name !== CACHE).map((name) => caches.delete(name)),
       );
-      await self.clients.claim();
+      // No clients.claim(): a page that loaded from the network keeps doing
+      // so; the next navigation is served from the new cache.
     })(),
   );
 });
