@@ -55,7 +55,12 @@ class Field:
 
     def allowed_text(self):
         if self.kind == CHOICE:
-            return ", ".join(cid for cid, _ in self.choice_list())
+            ids = [cid for cid, _ in self.choice_list()]
+            if len(ids) > 12:
+                return (f"one of the {len(ids)} entries in the list (id, UNS number or "
+                        "generic name)" if self.resolve else
+                        f"one of the {len(ids)} entries in the list")
+            return ", ".join(ids)
         if self.kind == TEXT:
             return ""
         parts = []

@@ -7,11 +7,8 @@ Chromium or Playwright is an error, never a skip.
 
 from __future__ import annotations
 
-import functools
-import http.server
 import os
 import sys
-import threading
 import time
 from pathlib import Path
 from urllib.parse import urlparse
@@ -42,23 +39,12 @@ def site_dir():
     return ensure_site()
 
 
-class _Quiet(http.server.SimpleHTTPRequestHandler):
-    def log_message(self, *args):
-        pass
-
-    def end_headers(self):
-        self.send_header("Cache-Control", "no-cache")
-        super().end_headers()
-
-
 @pytest.fixture(scope="session")
 def server(site_dir):
-    handler = functools.partial(_Quiet, directory=str(site_dir))
-    httpd = http.server.ThreadingHTTPServer(("127.0.0.1", 0), handler)
-    thread = threading.Thread(target=httpd.serve_forever, daemon=True)
-    thread.start()
-    yield f"http://127.0.0.1:{httpd.server_address[1]}"
-    httpd.shutdown()
+    """The built site on loopback, with the same CSP header as build.py --serve."""
+    from _site import serve_site
+    with serve_site(site_dir) as base:
+        yield base.rstrip("/")
 
 
 @pytest.fixture(scope="session")
