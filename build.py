@@ -26,9 +26,13 @@ takes seconds:
    and a cache name derived from the content hash; ``build-manifest.json``
    lists every file with sha256 and size.
 
-A later step (a Pyodide memory snapshot made under Node) slots in between 5
-and 7: it needs only ``site/pyodide`` and ``site/packages``, and its output
-is one more file that step 7 lists and precaches.
+5b. The engine's memory snapshot (``tools/make_snapshot.mjs``): Pyodide booted
+   under Node with the lock's wheels unpacked (each checked against its
+   sha256), noblegap imported and warmed, the WebAssembly memory saved and
+   shipped gzip-compressed with a JSON sidecar (Pyodide version, lock hash,
+   a known case); restored once under Node before the site is accepted. The
+   browser restores it instead of starting Python, and falls back to the
+   normal start when it does not match or does not answer correctly.
 """
 
 from __future__ import annotations
@@ -36,6 +40,7 @@ from __future__ import annotations
 import argparse
 import base64
 import email.parser
+import gzip
 import hashlib
 import http.server
 import json
@@ -64,6 +69,21 @@ CACHE = Path(os.environ.get("NOBLEGAP_CACHE", ROOT / ".cache"))
 PACKAGES_DIR = "packages"
 LOCK_NAME = "noblegap-lock.json"
 MANIFEST_NAME = "build-manifest.json"
+SNAPSHOT_INFO = "noblegap-snapshot.json"
+# Not ".gz": some static hosts would send Content-Encoding: gzip for it, and
+# the browser would then hand the worker bytes it cannot check or unpack.
+SNAPSHOT_FILE = "noblegap-snapshot.gzip"
+SNAPSHOT_FORMAT = 1
+SNAPSHOT_MAGIC = b"NGSNAP01"
+# The memory snapshot uses loadPyodide options that Pyodide marks private
+# (_makeSnapshot, _loadSnapshot) and a container layout of its own. They were
+# reviewed for these Pyodide versions and build ids only; after a pin bump,
+# re-check them (pyodide.d.ts, pyodide.asm.mjs makeSnapshot/restoreSnapshot)
+# and add the new pair. An unreviewed Pyodide builds a site without snapshot.
+SNAPSHOT_REVIEWED = {"314.0.8": "1e170351f97e56f0814b6a94f77bf4f6ec7d8835c8b8b26c6b5282c473979fc3"}
+# Checked after every restore, in the build and in each browser.
+SNAPSHOT_KNOWN_CASE = {"calc": "couple", "inputs": {"metal_a": "Zn", "metal_b": "Cu"},
+                       "keys": ["anode", "delta_E_V", "headline"]}
 SW_NAME = "sw.js"
 SW_MARKER = '"__NOBLEGAP_BUILD__"'
 
@@ -89,6 +109,7 @@ MIME_TYPES = {
     ".json": "application/json",
     ".whl": "application/zip",
     ".zip": "application/zip",
+    ".gzip": "application/gzip",
     ".svg": "image/svg+xml",
 }
 
@@ -447,6 +468,185 @@ def write_lock(pyodide_dir: Path, wheels: list[Path], out_dir: Path) -> dict:
     return lock
 
 
+# ---------------------------------------------------------------- step 5b: memory snapshot
+
+
+def _unpack_locked_wheels(packages: Path, lock: dict) -> dict[str, bytes]:
+    """Every file of the lock's wheels (site-packages layout), each wheel checked first."""
+    import zipfile
+
+    files: dict[str, bytes] = {}
+    for key, entry in sorted(lock["packages"].items()):
+        path = packages / entry["file_name"]
+        actual = sha256_file(path)
+        if actual != entry["sha256"]:
+            raise BuildError(f"{entry['file_name']}: sha256 {actual} does not match the lock ({entry['sha256']})")
+        with zipfile.ZipFile(path) as zf:
+            for info in zf.infolist():
+                name = info.filename
+                if info.is_dir():
+                    continue
+                if name.startswith("/") or ".." in name.split("/") or "\\" in name:
+                    raise BuildError(f"{entry['file_name']}: unsafe member name {name!r}")
+                data = zf.read(info)
+                if name in files and files[name] != data:
+                    raise BuildError(f"{entry['file_name']}: {name} differs from another wheel's copy")
+                files[name] = data
+    return dict(sorted(files.items()))
+
+
+SNAPSHOT_PAGE = 65536
+
+
+def _snapshot_container(files: dict[str, bytes], memory: bytes, pin: dict) -> bytes:
+    """MAGIC, u32 header length, header JSON, files, zero padding, memory's non-zero pages.
+
+    All-zero pages of the memory are left out (``memory_runs`` lists the
+    [first page, count] runs kept): the browser starts from a zeroed buffer,
+    so it unpacks a third fewer bytes.
+    """
+    page = SNAPSHOT_PAGE
+    runs: list[list[int]] = []
+    kept = []
+    zero = bytes(page)
+    for i in range(0, (len(memory) + page - 1) // page):
+        chunk = memory[i * page:(i + 1) * page]
+        if chunk == zero[:len(chunk)]:
+            continue
+        kept.append(chunk.ljust(page, b"\0"))
+        if runs and runs[-1][0] + runs[-1][1] == i:
+            runs[-1][1] += 1
+        else:
+            runs.append([i, 1])
+    total = sum(len(d) for d in files.values())
+    offset = 0
+    while True:
+        header = json.dumps({
+            "format": SNAPSHOT_FORMAT, "pyodide": pin["version"],
+            "files": [[name, len(data)] for name, data in files.items()],
+            "memory_offset": offset, "memory_size": len(memory), "page_size": page,
+            "memory_runs": runs,
+        }, separators=(",", ":")).encode()
+        start = 12 + len(header) + total
+        aligned = (start + 15) // 16 * 16
+        if aligned == offset:
+            break
+        offset = aligned
+    parts = [SNAPSHOT_MAGIC, len(header).to_bytes(4, "little"), header, *files.values(),
+             b"\0" * (offset - start), *kept]
+    return b"".join(parts)
+
+
+def _known_case(api) -> dict:
+    case = SNAPSHOT_KNOWN_CASE
+    result = api.run(case["calc"], case["inputs"])
+    if not result.get("ok"):
+        raise BuildError(f"the snapshot's known case fails on CPython: {result}")
+    expect = {k: result["result"]["display"]["headline"] if k == "headline" else result["result"][k]
+              for k in case["keys"]}
+    return {"calc": case["calc"], "inputs": case["inputs"], "expect": expect}
+
+
+def make_snapshot(site: Path, pin: dict, api) -> dict | None:
+    """Write packages/noblegap-snapshot.{gzip,json} into ``site``; cached in .cache/snapshot/.
+
+    Returns the sidecar, or None (with a warning) when the pinned Pyodide is
+    not one whose private snapshot options were reviewed.
+    """
+    reviewed = SNAPSHOT_REVIEWED.get(pin["version"])
+    if reviewed is None:
+        log(f"WARNING: no memory snapshot: Pyodide {pin['version']} is not in SNAPSHOT_REVIEWED; "
+            "the site starts the normal way until its snapshot options are reviewed")
+        return None
+    if shutil.which("node") is None:
+        raise BuildError("node is needed to make the engine's memory snapshot")
+    packages = site / PACKAGES_DIR
+    lock_bytes = (packages / LOCK_NAME).read_bytes()
+    lock = json.loads(lock_bytes)
+    files = _unpack_locked_wheels(packages, lock)
+    lock_sha = hashlib.sha256(lock_bytes).hexdigest()
+    tool_hash = hashlib.sha256(
+        (TOOLS / "make_snapshot.mjs").read_bytes() + (STATIC / "engine.mjs").read_bytes()
+    ).hexdigest()
+    key = hashlib.sha256(f"{lock_sha}|{pin['version']}|{tool_hash}|{SNAPSHOT_FORMAT}".encode()).hexdigest()[:32]
+    cdir = CACHE / "snapshot" / key
+    memory_path, report_path, gz_path = cdir / "memory.bin", cdir / "report.json", cdir / SNAPSHOT_FILE
+    if not (memory_path.exists() and report_path.exists() and gz_path.exists()):
+        with tempfile.TemporaryDirectory() as tmp:
+            fdir = Path(tmp) / "files"
+            for name, data in files.items():
+                (fdir / name).parent.mkdir(parents=True, exist_ok=True)
+                (fdir / name).write_bytes(data)
+            job = {"site_dir": str(site), "files_dir": str(fdir), "files": list(files),
+                   "memory_out": str(Path(tmp) / "memory.bin")}
+            (Path(tmp) / "job.json").write_text(json.dumps(job))
+            log(f"making the engine's memory snapshot inside Pyodide {pin['version']}")
+            proc = subprocess.run(["node", str(TOOLS / "make_snapshot.mjs"), str(Path(tmp) / "job.json")],
+                                  capture_output=True, text=True)
+            if proc.returncode != 0:
+                raise BuildError(f"tools/make_snapshot.mjs failed:\n{proc.stderr[-4000:]}")
+            report = json.loads(proc.stdout.strip().splitlines()[-1])
+            if (report["pyodide"], report["python"]) != (pin["version"], pin["python"]):
+                raise BuildError(f"snapshot made in Pyodide {report['pyodide']} / Python {report['python']}, "
+                                 f"pins/pyodide.json says {pin['version']} / {pin['python']}")
+            if report["pyodide_build_id"] != reviewed:
+                raise BuildError(f"Pyodide {pin['version']} has build id {report['pyodide_build_id']}, "
+                                 f"SNAPSHOT_REVIEWED says {reviewed}: review the snapshot options again")
+            if cdir.exists():
+                shutil.rmtree(cdir)
+            cdir.mkdir(parents=True)
+            memory = (Path(tmp) / "memory.bin").read_bytes()
+            container = _snapshot_container(files, memory, pin)
+            gz_path.write_bytes(gzip.compress(container, compresslevel=9, mtime=0))
+            shutil.copyfile(Path(tmp) / "memory.bin", memory_path)
+            report["raw_size"] = len(container)
+            report_path.write_text(json.dumps(report))
+    report = json.loads(report_path.read_text())
+    shutil.copyfile(gz_path, packages / SNAPSHOT_FILE)
+    digest = hashlib.sha256(gz_path.read_bytes()).digest()
+    build_id = hashlib.sha256(
+        f"noblegap-snapshot/{SNAPSHOT_FORMAT}|pyodide {pin['version']}|lock {lock_sha}".encode()
+    ).hexdigest()
+    info = {
+        "format": SNAPSHOT_FORMAT,
+        "build_id": build_id,
+        "pyodide": pin["version"],
+        "pyodide_build_id": report["pyodide_build_id"],
+        "python": report["python"],
+        "lock_sha256": lock_sha,
+        "file": SNAPSHOT_FILE,
+        "sha256": digest.hex(),
+        "sha256_b64": base64.b64encode(digest).decode(),
+        "size": gz_path.stat().st_size,
+        "raw_size": report["raw_size"],
+        "memory_size": report["memory_size"],
+        "package_files": len(files),
+        "known_case": _known_case(api),
+    }
+    (packages / SNAPSHOT_INFO).write_text(json.dumps(info, indent=1) + "\n")
+    verify_snapshot(site, info)
+    log(f"snapshot: {info['raw_size'] / 1e6:.1f} MB raw, {info['size'] / 1e6:.1f} MB gzip "
+        f"({len(files)} package files, memory {info['memory_size'] / 1e6:.1f} MB)")
+    return info
+
+
+def verify_snapshot(site: Path, info: dict) -> None:
+    """Restore the snapshot under Node through static/engine.mjs; the known case must match."""
+    case = info["known_case"]
+    with tempfile.TemporaryDirectory() as tmp:
+        cases = Path(tmp) / "cases.json"
+        cases.write_text(json.dumps([{"calc": case["calc"], "inputs": case["inputs"]}]))
+        proc = subprocess.run(["node", str(TOOLS / "pyodide_run.mjs"), "--mode", "snapshot", str(site), str(cases)],
+                              capture_output=True, text=True)
+    if proc.returncode != 0:
+        raise BuildError(f"the memory snapshot does not restore under Node:\n{proc.stderr[-4000:]}")
+    result = json.loads(proc.stdout.strip().splitlines()[-1])["results"][0]
+    got = {k: result["result"]["display"]["headline"] if k == "headline" else result["result"][k]
+           for k in case["expect"]}
+    if got != case["expect"]:
+        raise BuildError(f"the restored snapshot answers {got}, CPython {case['expect']}")
+
+
 # ---------------------------------------------------------------- step 6: pages
 
 
@@ -594,7 +794,7 @@ def write_manifest_and_sw(site: Path, inputs: str, pin: dict) -> dict:
 # ---------------------------------------------------------------- driver
 
 
-def build(site: Path = SITE, offline: bool = False, compile_pyc: bool = True) -> dict:
+def build(site: Path = SITE, offline: bool = False, compile_pyc: bool = True, snapshot: bool = True) -> dict:
     """Build the whole site into ``site``; returns the build manifest."""
     inputs = inputs_digest()
     pin = load_pyodide_pin()
@@ -614,10 +814,10 @@ def build(site: Path = SITE, offline: bool = False, compile_pyc: bool = True) ->
         for name in pin["site_files"]:
             shutil.copyfile(pyodide_dir / name, tmp / "pyodide" / name)
         write_lock(pyodide_dir, wheels, tmp / PACKAGES_DIR)
-        # (A build-time memory snapshot would be made here, from
-        # tmp/pyodide and tmp/packages, before the manifest lists the files.)
-        render_pages(tmp, site_globals, api)
         copy_static(tmp)
+        if snapshot:
+            make_snapshot(tmp, pin, api)
+        render_pages(tmp, site_globals, api)
         manifest = write_manifest_and_sw(tmp, inputs, pin)
     except BaseException:
         shutil.rmtree(tmp, ignore_errors=True)
@@ -670,6 +870,8 @@ def main(argv=None) -> int:
     parser.add_argument("--offline", action="store_true", help="use .cache/ only; never run npm or pip")
     parser.add_argument("--no-compile", action="store_true",
                         help="ship source wheels instead of byte-compiling them inside Pyodide")
+    parser.add_argument("--no-snapshot", action="store_true",
+                        help="ship no memory snapshot (every visit starts Python the normal way)")
     parser.add_argument("--update-pins", action="store_true",
                         help="rewrite pins/wheels.json from requirements-core.txt, then exit")
     args = parser.parse_args(argv)
@@ -677,7 +879,7 @@ def main(argv=None) -> int:
         if args.update_pins:
             update_wheel_pins()
             return 0
-        build(offline=args.offline, compile_pyc=not args.no_compile)
+        build(offline=args.offline, compile_pyc=not args.no_compile, snapshot=not args.no_snapshot)
     except (BuildError, subprocess.CalledProcessError) as exc:
         print(f"build failed: {exc}", file=sys.stderr)
         return 1

@@ -149,3 +149,91 @@ def test_server_sends_csp_and_types(site):
             with urllib.request.urlopen(base + path, timeout=10) as resp:
                 assert resp.headers["Content-Security-Policy"] == build.CSP
                 assert resp.headers["Content-Type"].startswith(mime), path
+
+
+# ---------------------------------------------------------------- memory snapshot
+
+
+@pytest.fixture(scope="module")
+def snapshot_info(site):
+    return json.loads((site / build.PACKAGES_DIR / build.SNAPSHOT_INFO).read_text())
+
+
+def _container(site, info):
+    import gzip
+
+    data = gzip.decompress((site / build.PACKAGES_DIR / info["file"]).read_bytes())
+    assert data[:8] == build.SNAPSHOT_MAGIC
+    length = int.from_bytes(data[8:12], "little")
+    return data, json.loads(data[12:12 + length]), 12 + length
+
+
+def test_snapshot_sidecar_matches_its_file_pyodide_and_lock(site, snapshot_info, manifest):
+    info = snapshot_info
+    pin = build.load_pyodide_pin()
+    path = site / build.PACKAGES_DIR / info["file"]
+    assert info["format"] == build.SNAPSHOT_FORMAT
+    assert (info["pyodide"], info["python"]) == (pin["version"], pin["python"])
+    assert info["pyodide_build_id"] == build.SNAPSHOT_REVIEWED[pin["version"]]
+    assert info["sha256"] == sha256(path) and info["size"] == path.stat().st_size
+    lock_sha = sha256(site / build.PACKAGES_DIR / build.LOCK_NAME)
+    assert info["lock_sha256"] == lock_sha
+    # the id engine.mjs computes from the Pyodide it loads and the lock it fetches
+    expected_id = hashlib.sha256(
+        f"noblegap-snapshot/{build.SNAPSHOT_FORMAT}|pyodide {pin['version']}|lock {lock_sha}".encode()).hexdigest()
+    assert info["build_id"] == expected_id
+    # shipped compressed, listed in the manifest, so the service worker precaches it
+    assert info["size"] < info["raw_size"] / 2
+    assert f"{build.PACKAGES_DIR}/{info['file']}" in manifest["files"]
+    assert f"{build.PACKAGES_DIR}/{build.SNAPSHOT_INFO}" in manifest["files"]
+    assert not info["file"].endswith(".gz"), "a host could send Content-Encoding: gzip for .gz"
+
+
+def test_snapshot_known_case_is_cpython_answer(snapshot_info):
+    from noblegap import api
+
+    case = snapshot_info["known_case"]
+    assert (case["calc"], case["inputs"]) == ("couple", {"metal_a": "Zn", "metal_b": "Cu"})
+    assert case["expect"]["anode"] == "Zn"
+    assert case["expect"]["delta_E_V"] == pytest.approx(1.1037, abs=5e-5)
+    result = api.run(case["calc"], case["inputs"])
+    assert case["expect"]["headline"] == result["result"]["display"]["headline"]
+
+
+def test_snapshot_holds_exactly_the_locked_wheels_files(site, snapshot_info, lock):
+    data, header, offset = _container(site, snapshot_info)
+    assert len(data) == snapshot_info["raw_size"]
+    expected = {}
+    for entry in lock["packages"].values():
+        with zipfile.ZipFile(site / build.PACKAGES_DIR / entry["file_name"]) as zf:
+            for info in zf.infolist():
+                if not info.is_dir():
+                    expected[info.filename] = zf.read(info)
+    got = {}
+    for name, size in header["files"]:
+        got[name] = data[offset:offset + size]
+        offset += size
+    assert got == expected
+    # memory: 16-byte aligned after the files, only non-zero pages stored
+    assert header["memory_offset"] % 16 == 0 and header["memory_offset"] >= offset
+    pages = sum(count for _, count in header["memory_runs"])
+    assert len(data) == header["memory_offset"] + pages * header["page_size"]
+    assert pages * header["page_size"] < header["memory_size"]
+    assert header["memory_size"] == snapshot_info["memory_size"]
+
+
+def test_snapshot_container_round_trip():
+    pin = {"version": "0"}
+    page = build.SNAPSHOT_PAGE
+    memory = bytes(page) + b"\x01" * 10 + bytes(page - 10) + bytes(2 * page) + b"\x02" * page
+    data = build._snapshot_container({"a/b.py": b"xyz"}, memory, pin)
+    length = int.from_bytes(data[8:12], "little")
+    header = json.loads(data[12:12 + length])
+    assert header["memory_runs"] == [[1, 1], [4, 1]]
+    assert data[12 + length:12 + length + 3] == b"xyz"
+    rebuilt = bytearray(header["memory_size"])
+    at = header["memory_offset"]
+    for first, count in header["memory_runs"]:
+        rebuilt[first * page:(first + count) * page] = data[at:at + count * page]
+        at += count * page
+    assert bytes(rebuilt) == memory

@@ -1,24 +1,36 @@
 // Run calculator cases inside Pyodide under Node, loading the built site the
 // way the browser worker does (site/static/engine.mjs: same runtime files,
-// same lock file, same wheels).
+// same lock file, same wheels, same memory snapshot).
 //
-// usage: node tools/pyodide_run.mjs SITE_DIR CASES.json
+// usage: node tools/pyodide_run.mjs [--mode normal|snapshot] SITE_DIR CASES.json
+//
+//   --mode normal    (default) loadPyodide + loadPackage from the lock file
+//   --mode snapshot  restore the build's memory snapshot; exits 1 if the
+//                    engine fell back to the normal start
 //
 // CASES.json is a list of {"calc", "inputs"}. Prints one JSON object:
-//   {"python": "3.14.2", "timings": {...}, "results": [api.run(...) per case]}
+//   {"python": "3.14.2", "mode": "...", "note": ..., "random": random.random(), "timings": {...},
+//    "results": [api.run(...) per case]}
 // Node reads local files without the browser's Subresource Integrity check,
-// so this runner checks every wheel's sha256 against the lock file first.
+// so this runner checks every wheel's sha256 against the lock file first,
+// and the fetch it hands the engine checks any integrity it is asked for.
 import { createHash } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import { join, resolve } from "node:path";
-import { pathToFileURL } from "node:url";
+import { fileURLToPath, pathToFileURL } from "node:url";
 
-if (process.argv.length !== 4) {
-  console.error("usage: node tools/pyodide_run.mjs SITE_DIR CASES.json");
+const argv = process.argv.slice(2);
+let mode = "normal";
+if (argv[0] === "--mode") {
+  mode = argv[1];
+  argv.splice(0, 2);
+}
+if (argv.length !== 2 || !["normal", "snapshot"].includes(mode)) {
+  console.error("usage: node tools/pyodide_run.mjs [--mode normal|snapshot] SITE_DIR CASES.json");
   process.exit(2);
 }
-const site = resolve(process.argv[2]);
-const cases = JSON.parse(await readFile(process.argv[3], "utf8"));
+const site = resolve(argv[0]);
+const cases = JSON.parse(await readFile(argv[1], "utf8"));
 const lockPath = join(site, "packages", "noblegap-lock.json");
 const lock = JSON.parse(await readFile(lockPath, "utf8"));
 for (const pkg of Object.values(lock.packages)) {
@@ -30,15 +42,43 @@ for (const pkg of Object.values(lock.packages)) {
   }
 }
 
+// fetch for local files, with the integrity check a browser would make.
+async function fileFetch(url, init = {}) {
+  const path = String(url).startsWith("file:") ? fileURLToPath(url) : String(url);
+  let data;
+  try {
+    data = await readFile(path);
+  } catch {
+    return new Response(null, { status: 404 });
+  }
+  if (init.integrity) {
+    const [algorithm, expected] = init.integrity.split(/-(.*)/s);
+    const actual = createHash(algorithm).update(data).digest("base64");
+    if (actual !== expected) throw new TypeError(`${path}: integrity check failed`);
+  }
+  return new Response(data);
+}
+
 const { startEngine } = await import(pathToFileURL(join(site, "static", "engine.mjs")).href);
 const engine = await startEngine({
   indexURL: join(site, "pyodide") + "/",
   lockFileURL: lockPath,
+  snapshotInfoURL: mode === "snapshot" ? pathToFileURL(join(site, "packages", "noblegap-snapshot.json")).href : false,
+  fetch: fileFetch,
   stdout: (msg) => console.error(msg),
   stderr: (msg) => console.error(msg),
 });
+if (engine.mode !== mode) {
+  console.error(`asked for mode ${mode}, the engine started in mode ${engine.mode} (${engine.note ?? ""})`);
+  process.exit(1);
+}
 const results = cases.map((c) => engine.run(c.calc, c.inputs));
+// The next number of Python's random module: differs between two restores
+// of the same snapshot only if the engine re-seeded it.
+const random = engine.pyodide.runPython("import random; random.random()");
 const sys = engine.pyodide.pyimport("sys");
 const python = `${sys.version_info.major}.${sys.version_info.minor}.${sys.version_info.micro}`;
 sys.destroy();
-process.stdout.write(JSON.stringify({ python, timings: engine.timings, results }) + "\n");
+process.stdout.write(
+  JSON.stringify({ python, mode: engine.mode, note: engine.note ?? null, random, timings: engine.timings, results }) + "\n",
+);

@@ -1,7 +1,7 @@
 // Page script: schema-driven form <-> URL query <-> engine worker <-> result DOM.
 // All computation happens in the Python core inside the worker; this file only
 // moves inputs and renders the core's "display" structure with textContent.
-import "./register-sw.js";
+import { registerServiceWorker } from "./register-sw.js";
 
 const schema = JSON.parse(document.getElementById("schema").textContent);
 const form = document.getElementById("inputs");
@@ -105,12 +105,14 @@ function engineReady(msg) {
   if (msg && msg.mode) document.body.dataset.engineMode = msg.mode;
   engineStatus.textContent = msg && msg.note ? `Live engine ready (${msg.note}).` : "Live engine ready: results update as you type.";
   compute();
+  registerServiceWorker();
 }
 
 function engineFailed(message) {
   document.body.dataset.engine = "failed";
   engineStatus.textContent = `The live engine could not start (${message}). The worked example below is still valid for its inputs; reload to try again.`;
   engineStatus.classList.add("engine-failed");
+  registerServiceWorker();
 }
 
 async function compute() {

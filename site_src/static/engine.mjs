@@ -1,51 +1,353 @@
 // Boot Pyodide from the site's own files and call noblegap.api.
 //
-// Shared by the page's Web Worker (static/worker.js) and the Node parity
-// runner (tools/pyodide_run.mjs), so the tests load the engine exactly as the
-// browser does. Dicts cross the JS/Python boundary as JSON text only
+// Shared by the page's Web Worker (static/worker.js), the Node parity runner
+// (tools/pyodide_run.mjs) and the build's snapshot maker
+// (tools/make_snapshot.mjs), so tests and build load the engine exactly as
+// the browser does. Dicts cross the JS/Python boundary as JSON text only
 // (json.loads / json.dumps on the Python side, JSON.parse / JSON.stringify
 // here), so no PyProxy outlives a call.
-import { loadPyodide } from "../pyodide/pyodide.mjs";
+//
+// Two ways to start:
+//
+// * snapshot (the fast start): the build boots Pyodide under Node, installs
+//   the engine's packages, imports and warms noblegap and saves the WebAssembly
+//   memory (packages/noblegap-snapshot.json names the file and how to check
+//   it). Here the memory is restored instead of starting Python, the package
+//   files are written back into site-packages (lazy imports and data tables
+//   read them), Python's random state is re-seeded, and a known case must
+//   give the answer the build recorded.
+// * normal: loadPyodide, loadPackage from the lock file (every wheel checked
+//   with Subresource Integrity), import noblegap.api and warm it.
+//
+// Any failure of the snapshot path (missing or corrupt file, another Pyodide
+// or lock file, a wrong answer) falls back to the normal start, visibly: a
+// progress message "snapshot unusable — normal start" and the ready message's
+// mode "normal" with a note saying why.
+import { loadPyodide, version as PYODIDE_VERSION } from "../pyodide/pyodide.mjs";
 
 export const LOCK_FILE = "noblegap-lock.json";
+export const SNAPSHOT_INFO = "noblegap-snapshot.json";
 export const ENGINE_PACKAGE = "noblegap";
+// The snapshot container (after gunzip): MAGIC, u32 LE header length, the
+// header as JSON, the package files back to back, zero padding, then the
+// Pyodide memory snapshot's non-zero pages from header.memory_offset.
+export const SNAPSHOT_FORMAT = 1;
+export const SNAPSHOT_MAGIC = "NGSNAP01";
+export const FALLBACK_LABEL = "snapshot unusable — normal start";
 
 // Loading phases in order, with the share of the loading bar reached when
 // each one starts.
 export const PHASES = [
   ["fetch runtime", 0.02, "Fetching the Python runtime"],
+  ["restore snapshot", 0.5, "Restoring the prepared engine"],
+  ["check engine", 0.9, "Checking the engine against a known case"],
+  ["normal start", 0.02, FALLBACK_LABEL],
   ["start Python", 0.45, "Starting Python"],
   ["load packages", 0.7, "Loading the calculation engine"],
   ["import engine", 0.85, "Preparing the unit registry and tables"],
   ["ready", 1.0, "Ready"],
 ];
 
+// Python run in the build right before the memory is saved: import what the
+// pages use, warm the tables and unit registry, then drop what only the
+// build needed. Nothing may stay referenced from JavaScript.
+export const WARM_PY = `
+import gc, importlib, json, linecache, sys
+import noblegap.api as _api
+import noblegap.units as _units
+_units.registry()
+for _calc in _api.describe()["calculators"]:
+    _api.describe(_calc["name"])
+    json.dumps(_api.run(_calc["name"], _calc.get("example", {})), allow_nan=False)
+del _calc, _api, _units
+linecache.clearcache()
+importlib.invalidate_caches()
+sys.last_exc = sys.last_type = sys.last_value = sys.last_traceback = None
+gc.collect()
+`;
+
+// Python run right after a restore: every user gets fresh random state, and
+// the import system forgets directory listings made at build time.
+const AFTER_RESTORE_PY = `
+import importlib, os, random
+random.seed(int.from_bytes(os.urandom(32), "big"))
+importlib.invalidate_caches()
+`;
+
+function hex(buffer) {
+  return [...new Uint8Array(buffer)].map((b) => b.toString(16).padStart(2, "0")).join("");
+}
+
+export async function sha256Hex(data) {
+  const bytes = typeof data === "string" ? new TextEncoder().encode(data) : data;
+  return hex(await crypto.subtle.digest("SHA-256", bytes));
+}
+
+/** The id a snapshot must carry for this Pyodide and this lock file. */
+export async function snapshotBuildId(pyodideVersion, lockSha256) {
+  return sha256Hex(`noblegap-snapshot/${SNAPSHOT_FORMAT}|pyodide ${pyodideVersion}|lock ${lockSha256}`);
+}
+
 /**
- * Start Python and import noblegap.api.
+ * Split a decompressed container into {header, files: [[path, bytes]], memory}.
+ * The memory is stored without its all-zero pages: header.memory_runs lists
+ * [first page, page count] of the pages kept, header.page_size their size.
+ */
+export function parseSnapshot(bytes) {
+  const magic = new TextDecoder().decode(bytes.subarray(0, 8));
+  if (magic !== SNAPSHOT_MAGIC) throw new Error("not a noblegap snapshot (bad magic)");
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const headerLength = view.getUint32(8, true);
+  if (12 + headerLength > bytes.length) throw new Error("snapshot header is truncated");
+  const header = JSON.parse(new TextDecoder().decode(bytes.subarray(12, 12 + headerLength)));
+  let offset = 12 + headerLength;
+  const files = [];
+  for (const [path, size] of header.files) {
+    if (typeof path !== "string" || path.startsWith("/") || path.split("/").includes("..")) {
+      throw new Error(`snapshot lists a bad path ${JSON.stringify(path)}`);
+    }
+    files.push([path, bytes.subarray(offset, offset + size)]);
+    offset += size;
+  }
+  const pageSize = header.page_size;
+  const stored = header.memory_runs.reduce((n, [, count]) => n + count, 0) * pageSize;
+  const end = header.memory_offset + stored;
+  if (offset > header.memory_offset || end !== bytes.length) {
+    throw new Error(`snapshot is ${bytes.length} bytes, its header says ${end}`);
+  }
+  // A fresh buffer is zero-filled: only the stored pages are copied in.
+  const memory = new Uint8Array(header.memory_size);
+  let from = header.memory_offset;
+  for (const [first, count] of header.memory_runs) {
+    const length = Math.min(count * pageSize, header.memory_size - first * pageSize);
+    memory.set(bytes.subarray(from, from + length), first * pageSize);
+    from += count * pageSize;
+  }
+  return { header, files, memory };
+}
+
+/** Write the package files of a snapshot (or of the build) into site-packages. */
+export function installFiles(FS, sitePackages, files) {
+  const made = new Set();
+  for (const [path, data] of files) {
+    const dir = path.includes("/") ? `${sitePackages}/${path.slice(0, path.lastIndexOf("/"))}` : sitePackages;
+    if (!made.has(dir)) {
+      FS.mkdirTree(dir);
+      made.add(dir);
+    }
+    FS.writeFile(`${sitePackages}/${path}`, data, { canOwn: false });
+  }
+}
+
+/**
+ * Unpack a gzip response while it downloads, into a buffer of the size the
+ * sidecar gives; the compressed bytes must have the sidecar's sha256.
+ */
+async function gunzipChecked(response, info) {
+  const [forHash, forInflate] = response.body.tee();
+  const hashed = new Response(forHash).arrayBuffer().then((buf) => sha256Hex(new Uint8Array(buf)));
+  const out = new Uint8Array(info.raw_size);
+  let offset = 0;
+  const reader = forInflate.pipeThrough(new DecompressionStream("gzip")).getReader();
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    if (offset + value.length > out.length) throw new Error("snapshot unpacks to more bytes than its sidecar says");
+    out.set(value, offset);
+    offset += value.length;
+  }
+  if (offset !== out.length) throw new Error(`snapshot unpacks to ${offset} bytes, its sidecar says ${out.length}`);
+  if ((await hashed) !== info.sha256) throw new Error("snapshot file does not match its sha256");
+  return out;
+}
+
+/** Does result match the known case the build recorded (to 1e-12 relative)? */
+export function knownCaseError(result, expect) {
+  if (!result || !result.ok) return `known case failed: ${JSON.stringify(result && result.error)}`;
+  for (const [key, want] of Object.entries(expect)) {
+    const got = key === "headline" ? result.result.display.headline : result.result[key];
+    const same =
+      typeof want === "number" && typeof got === "number"
+        ? Math.abs(got - want) <= 1e-12 * Math.max(Math.abs(want), Math.abs(got))
+        : got === want;
+    if (!same) return `known case: ${key} is ${JSON.stringify(got)}, expected ${JSON.stringify(want)}`;
+  }
+  return null;
+}
+
+/** run / describe through JSON text, so no PyProxy outlives a call. */
+function bindApi(pyodide) {
+  const api = pyodide.pyimport("noblegap.api");
+  // api, loads and dumps live as long as the engine; every other proxy is
+  // destroyed by the call that made it.
+  const json = pyodide.pyimport("json");
+  const loads = json.loads.copy();
+  const dumps = json.dumps.copy();
+  json.destroy();
+  const toJS = (proxy) => {
+    try {
+      return JSON.parse(dumps(proxy));
+    } finally {
+      proxy.destroy();
+    }
+  };
+  const run = (calc, inputs) => {
+    const pyInputs = loads(JSON.stringify(inputs ?? {}));
+    try {
+      return toJS(api.run(String(calc), pyInputs));
+    } finally {
+      pyInputs.destroy();
+    }
+  };
+  const describe = (calc) => toJS(calc == null ? api.describe() : api.describe(String(calc)));
+  return { run, describe };
+}
+
+/**
+ * Start Python and import noblegap.api, from the build's snapshot when it is
+ * usable, else the normal way.
  *
  * @param {object} [options]
  * @param {string} [options.indexURL] folder of pyodide.mjs and its runtime files
  * @param {string} [options.lockFileURL] the site's lock file (wheels + sha256)
+ * @param {string|false} [options.snapshotInfoURL] the snapshot's JSON sidecar; false: normal start only
+ * @param {Function} [options.fetch] fetch-like (url, init) => Response, for the
+ *   sidecar, the lock file and the snapshot (Node passes one that reads files
+ *   and checks init.integrity itself)
  * @param {(p: {phase: string, fraction: number, label: string}) => void} [options.onProgress]
  * @param {(msg: string) => void} [options.stdout]
  * @param {(msg: string) => void} [options.stderr]
- * @returns {Promise<{run: Function, describe: Function, pyodide: object, timings: object}>}
+ * @returns {Promise<{run, describe, pyodide, timings, mode: "snapshot"|"normal", note?: string}>}
  */
 export async function startEngine(options = {}) {
   const here = import.meta.url;
   const indexURL = options.indexURL ?? new URL("../pyodide/", here).href;
   const lockFileURL = options.lockFileURL ?? new URL(`../packages/${LOCK_FILE}`, here).href;
+  const snapshotInfoURL = options.snapshotInfoURL ?? new URL(`../packages/${SNAPSHOT_INFO}`, here).href;
+  const fetchFn = options.fetch ?? ((url, init) => fetch(url, init));
   const onProgress = options.onProgress ?? (() => {});
   const stdout = options.stdout ?? ((msg) => console.log(msg));
   const stderr = options.stderr ?? ((msg) => console.warn(msg));
   const t0 = performance.now();
   const timings = {};
-  const phase = (name) => {
-    const [, fraction, label] = PHASES.find((p) => p[0] === name);
+  const phase = (name, label) => {
+    const [, fraction, defaultLabel] = PHASES.find((p) => p[0] === name);
     timings[name] = performance.now() - t0;
-    onProgress({ phase: name, fraction, label });
+    onProgress({ phase: name, fraction, label: label ?? defaultLabel });
   };
+  // A timing without a progress message.
+  const mark = (name) => {
+    timings[name] = performance.now() - t0;
+  };
+  const ctx = { indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark, timings };
 
+  let engine;
+  let note;
+  if (snapshotInfoURL !== false) {
+    try {
+      engine = await startFromSnapshot(ctx);
+    } catch (err) {
+      note = `${FALLBACK_LABEL}: ${err && err.message ? err.message.split("\n")[0] : err}`;
+      stderr(`noblegap: ${note}`);
+      phase("normal start", note);
+    }
+  }
+  if (!engine) engine = await startNormally(ctx);
+  phase("ready");
+  timings.total = performance.now() - t0;
+  return { ...engine, warmStep: warmer(engine), timings, ...(note ? { note } : {}) };
+}
+
+/**
+ * One warm-up calculation per call, cycling through the calculators'
+ * examples. A restored snapshot has run almost no code in this browser, so
+ * the WebAssembly interpreter loop is still in the baseline tier; running
+ * the real calculations a few dozen times while the user reads the page lets
+ * the browser optimise the hot functions before the first edits. Returns
+ * false when there is nothing to warm.
+ */
+function warmer(engine) {
+  let examples = null;
+  let next = 0;
+  return () => {
+    if (examples === null) {
+      examples = (engine.describe().calculators ?? []).map((c) => [c.name, c.example ?? {}]);
+    }
+    if (!examples.length) return false;
+    const [name, inputs] = examples[next++ % examples.length];
+    engine.run(name, inputs);
+    return true;
+  };
+}
+
+// The sidecar, checked against this Pyodide and the lock file it will load.
+async function snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn) {
+  const [infoResponse, lockResponse] = await Promise.all([
+    fetchFn(snapshotInfoURL, { cache: "no-cache" }),
+    fetchFn(lockFileURL),
+  ]);
+  if (!infoResponse.ok) throw new Error(`no snapshot (${infoResponse.status})`);
+  if (!lockResponse.ok) throw new Error(`no lock file (${lockResponse.status})`);
+  const info = await infoResponse.json();
+  const lockSha = await sha256Hex(new Uint8Array(await lockResponse.arrayBuffer()));
+  if (info.format !== SNAPSHOT_FORMAT) throw new Error(`snapshot format ${info.format}, expected ${SNAPSHOT_FORMAT}`);
+  if (info.pyodide !== PYODIDE_VERSION) {
+    throw new Error(`snapshot made with Pyodide ${info.pyodide}, this is ${PYODIDE_VERSION}`);
+  }
+  const buildId = await snapshotBuildId(PYODIDE_VERSION, lockSha);
+  if (info.build_id !== buildId) throw new Error("snapshot build id does not match this Pyodide and lock file");
+  return info;
+}
+
+async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark }) {
+  phase("fetch runtime", "Fetching the Python runtime and the prepared engine");
+  // loadPyodide starts at once (the runtime downloads meanwhile); it waits
+  // for the memory, which is only handed over once the sidecar matches.
+  const checked = snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn);
+  const container = (async () => {
+    const info = await checked;
+    mark("snapshot info checked");
+    const url = new URL(info.file, new URL(snapshotInfoURL, "file:///")).href;
+    // Not fetch's integrity option: it would hold the body until the last
+    // byte; the sha256 is checked on the same bytes while they unpack.
+    const response = await fetchFn(url);
+    if (!response.ok) throw new Error(`snapshot file: HTTP ${response.status}`);
+    mark("snapshot response");
+    const bytes = await gunzipChecked(response, info);
+    mark("snapshot unpacked");
+    return parseSnapshot(bytes);
+  })();
+  const memory = container.then((c) => c.memory);
+  // loadPyodide awaits the memory only after it has loaded its own script:
+  // keep an early rejection from surfacing as unhandled meanwhile (it still
+  // rejects loadPyodide, and so starts the normal way).
+  for (const promise of [checked, container, memory]) promise.catch(() => {});
+  const pyodide = await loadPyodide({
+    indexURL,
+    lockFileURL,
+    stdout,
+    stderr,
+    checkAPIVersion: true,
+    _loadSnapshot: memory,
+    // Runs after the memory is in place and before Python resumes: the
+    // files the snapshot's imports came from go back where they were.
+    fsInit: async (FS, { sitePackages }) => {
+      phase("restore snapshot");
+      installFiles(FS, sitePackages, (await container).files);
+      mark("files installed");
+    },
+  });
+  const info = await checked;
+  phase("check engine");
+  pyodide.runPython(AFTER_RESTORE_PY);
+  const bound = bindApi(pyodide);
+  const known = info.known_case;
+  const problem = knownCaseError(bound.run(known.calc, known.inputs), known.expect);
+  if (problem) throw new Error(problem);
+  return { pyodide, ...bound, mode: "snapshot" };
+}
+
+async function startNormally({ indexURL, lockFileURL, stdout, stderr, phase }) {
   phase("fetch runtime");
   const pyodide = await loadPyodide({
     indexURL,
@@ -70,42 +372,11 @@ export async function startEngine(options = {}) {
   }
 
   phase("import engine");
-  const api = pyodide.pyimport("noblegap.api");
-  // api, loads and dumps live as long as the engine; every other proxy is
-  // destroyed by the call that made it.
-  const json = pyodide.pyimport("json");
-  const loads = json.loads.copy();
-  const dumps = json.dumps.copy();
-
-  const toJS = (proxy) => {
-    try {
-      return JSON.parse(dumps(proxy));
-    } finally {
-      proxy.destroy();
-    }
-  };
-  const run = (calc, inputs) => {
-    const pyInputs = loads(JSON.stringify(inputs ?? {}));
-    try {
-      return toJS(api.run(String(calc), pyInputs));
-    } finally {
-      pyInputs.destroy();
-    }
-  };
-  const describe = (calc) => toJS(calc == null ? api.describe() : api.describe(String(calc)));
-
+  const bound = bindApi(pyodide);
   // Warm the engine: the first calculation imports the calculator modules,
   // reads the tables and builds the unit registry.
-  const schema = describe();
+  const schema = bound.describe();
   const first = (schema.calculators ?? [])[0];
-  if (first) run(first.name, first.example ?? {});
-  phase("ready");
-  timings.total = performance.now() - t0;
-
-  return {
-    pyodide,
-    timings,
-    run,
-    describe,
-  };
+  if (first) bound.run(first.name, first.example ?? {});
+  return { pyodide, ...bound, mode: "normal" };
 }

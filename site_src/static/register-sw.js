@@ -5,4 +5,10 @@ export function registerServiceWorker() {
     console.warn("noblegap: offline cache not available:", err);
   });
 }
-registerServiceWorker();
+
+// A calculator page (static/app.js) registers once its engine is ready, so
+// the precache download does not compete with the engine's start; other
+// pages register right away.
+if (![...document.scripts].some((s) => /(^|\/)app\.js$/.test(s.getAttribute("src") || ""))) {
+  registerServiceWorker();
+}

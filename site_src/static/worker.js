@@ -6,7 +6,10 @@
 //                                              noblegap.api.run / describe returned
 //       {id, ok: false, error: {type, message, fields, ...}, response?}
 //       {type: "progress", phase, fraction, label}   while loading
-//       {type: "ready", timings}                     once, when calls are answered live
+//       {type: "ready", mode, note?, timings}        once, when calls are answered live;
+//                                                    mode "snapshot" (restored from the
+//                                                    build's memory snapshot) or "normal",
+//                                                    note says why a snapshot was not used
 //       {type: "fatal", message}                     the engine cannot start or crashed
 //
 // Calls sent before "ready" are queued and answered once the engine is up.
@@ -28,9 +31,44 @@ const engineReady = startEngine({
   onProgress: ({ phase, fraction, label }) => post({ type: "progress", phase, fraction, label }),
 });
 engineReady.then(
-  (engine) => post({ type: "ready", timings: engine.timings }),
+  (engine) => {
+    post({
+      type: "ready",
+      mode: engine.mode,
+      ...(engine.note ? { note: engine.note } : {}),
+      timings: engine.timings,
+    });
+    warmUp(engine);
+  },
   (err) => fatal(err),
 );
+
+// After ready, in idle moments: a bounded number of warm-up calculations
+// (engine.warmStep), one per task, so a call from the page waits for at most
+// one of them. Stops early once the page has been sending edits.
+const WARM_RUNS = 60;
+const WARM_BUDGET_MS = 2500;
+let lastCallAt = 0;
+function warmUp(engine) {
+  const started = performance.now();
+  let runs = 0;
+  const step = () => {
+    if (runs >= WARM_RUNS || performance.now() - started > WARM_BUDGET_MS) return;
+    // The page is busy with the user: leave the CPU to the calls.
+    if (performance.now() - lastCallAt < 150) {
+      setTimeout(step, 100);
+      return;
+    }
+    try {
+      if (!engine.warmStep()) return;
+    } catch {
+      return;
+    }
+    runs += 1;
+    setTimeout(step, 0);
+  };
+  setTimeout(step, 0);
+}
 
 // {type, message, fields} from a noblegap error dict, keeping every key it has.
 // fields maps each offending input to {message, value, allowed, suggestions}.
@@ -78,6 +116,7 @@ function answer(engine, fn, args) {
 
 self.onmessage = async (event) => {
   const { id, fn, args } = event.data ?? {};
+  lastCallAt = performance.now();
   let engine;
   try {
     engine = await engineReady;

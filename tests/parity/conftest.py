@@ -23,25 +23,42 @@ def load_cases():
     return cases
 
 
-@pytest.fixture(scope="session")
-def pyodide_results(tmp_path_factory):
-    """Every case of load_cases() run inside Pyodide under Node, in file order.
+MODES = ("normal", "snapshot")
 
-    Uses tools/pyodide_run.mjs, which loads site/ through the same
-    static/engine.mjs as the browser worker.
-    """
+
+def run_in_pyodide(cases, mode, tmp_dir):
+    """tools/pyodide_run.mjs --mode MODE over ``cases``; its JSON report."""
     if shutil.which("node") is None:
         if os.environ.get("CI"):
             pytest.fail("node is required for the parity test in CI")
         pytest.skip("node is not installed")
     site = ensure_site()
-    cases_file = tmp_path_factory.mktemp("parity") / "cases.json"
-    cases_file.write_text(json.dumps(load_cases()))
+    cases_file = tmp_dir / f"cases-{mode}.json"
+    cases_file.write_text(json.dumps(cases))
     proc = subprocess.run(
-        ["node", str(ROOT / "tools" / "pyodide_run.mjs"), str(site), str(cases_file)],
+        ["node", str(ROOT / "tools" / "pyodide_run.mjs"), "--mode", mode, str(site), str(cases_file)],
         capture_output=True, text=True, timeout=300,
     )
     if proc.returncode != 0:
-        pytest.fail(f"tools/pyodide_run.mjs failed ({proc.returncode}):\n{proc.stderr[-4000:]}")
-    report = json.loads(proc.stdout.strip().splitlines()[-1])
-    return report
+        pytest.fail(f"tools/pyodide_run.mjs --mode {mode} failed ({proc.returncode}):\n{proc.stderr[-4000:]}")
+    return json.loads(proc.stdout.strip().splitlines()[-1])
+
+
+@pytest.fixture(scope="session")
+def pyodide_runs(tmp_path_factory):
+    """Every case of load_cases() run inside Pyodide under Node, in file order,
+    once per start mode: ``normal`` (loadPackage from the lock file) and
+    ``snapshot`` (the build's memory snapshot restored).
+
+    Uses tools/pyodide_run.mjs, which loads site/ through the same
+    static/engine.mjs as the browser worker.
+    """
+    tmp = tmp_path_factory.mktemp("parity")
+    cases = load_cases()
+    return {mode: run_in_pyodide(cases, mode, tmp) for mode in MODES}
+
+
+@pytest.fixture(scope="session")
+def pyodide_results(pyodide_runs):
+    """The normal-start run (kept for tests written against one run)."""
+    return pyodide_runs["normal"]

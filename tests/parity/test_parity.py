@@ -2,7 +2,8 @@
 
 Each case of cases.json, and each calculator's example, runs through ``noblegap.api.run`` here and in
 Pyodide under Node (loaded from the built site/ the way the browser worker
-loads it). Results must agree key for key; floats to 1e-12 relative.
+loads it), once after a normal start and once from the build's memory
+snapshot. Results must agree key for key; floats to 1e-12 relative.
 """
 
 import json
@@ -10,7 +11,7 @@ import math
 
 import pytest
 
-from .conftest import load_cases
+from .conftest import MODES, load_cases, run_in_pyodide
 
 CASES = load_cases()
 REL = 1e-12
@@ -59,20 +60,32 @@ def test_cases_cover_every_calculator():
     assert names - covered == set(), "add parity cases to tests/parity/cases.json"
 
 
-def test_pyodide_runs_the_pinned_python(pyodide_results):
+@pytest.mark.parametrize("mode", MODES)
+def test_pyodide_runs_the_pinned_python(pyodide_runs, mode):
     from _site import build_module
 
-    assert pyodide_results["python"] == build_module().load_pyodide_pin()["python"]
-    assert len(pyodide_results["results"]) == len(CASES)
+    run = pyodide_runs[mode]
+    assert run["mode"] == mode, run.get("note")
+    assert run["python"] == build_module().load_pyodide_pin()["python"]
+    assert len(run["results"]) == len(CASES)
 
 
+@pytest.mark.parametrize("mode", MODES)
 @pytest.mark.parametrize(
     "index", range(len(CASES)), ids=[f"{c['calc']}-{'example' if c.get('example') else i}" for i, c in enumerate(CASES)]
 )
-def test_same_result(index, pyodide_results):
+def test_same_result(index, mode, pyodide_runs):
     import noblegap.api as api
 
     case = CASES[index]
     expected = json.loads(json.dumps(api.run(case["calc"], case["inputs"]), allow_nan=False))
-    got = pyodide_results["results"][index]
+    got = pyodide_runs[mode]["results"][index]
     assert _diff(expected, got) is None, _diff(expected, got)
+
+
+def test_snapshot_restores_reseed_random(pyodide_runs, tmp_path):
+    """Every restore of the one snapshot gets its own random state."""
+    again = run_in_pyodide([], "snapshot", tmp_path)
+    first = pyodide_runs["snapshot"]["random"]
+    assert isinstance(first, float) and isinstance(again["random"], float)
+    assert first != again["random"]

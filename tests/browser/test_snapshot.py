@@ -1,0 +1,135 @@
+"""The fast start: the engine restored from the build's memory snapshot, and
+the visible fallback to the normal start when the snapshot is unusable.
+
+Each test uses a fresh browser profile (the ``context`` fixture), so the
+service worker of an earlier test cannot answer for the routed URLs.
+"""
+
+from __future__ import annotations
+
+import gzip
+import json
+
+import pytest
+
+from conftest import wait_live
+from noblegap import api
+
+SNAPSHOT_INFO = "**/packages/noblegap-snapshot.json"
+SNAPSHOT_FILE = "**/packages/noblegap-snapshot.gzip"
+FALLBACK = "snapshot unusable"
+
+
+def _headline(result):
+    return result["result"]["display"]["headline"]
+
+
+def _couple_headline():
+    return _headline(api.run("couple", api.get("couple").example))
+
+
+def _live_couple(page, server):
+    page.goto(f"{server}/couple.html")
+    wait_live(page, 0)
+    assert page.get_attribute("#result", "data-state") == "live"
+    return page.inner_text("#result .headline")
+
+
+def _statuses(page):
+    """Every engine status text the page shows, from the first progress message on."""
+    page.add_init_script("""
+        (() => {
+          window.__statusLog = [];
+          const note = () => {
+            const s = document.getElementById('engine-status');
+            if (s) window.__statusLog.push(s.textContent);
+          };
+          const start = () => {
+            const s = document.getElementById('engine-status');
+            if (!s) return;
+            new MutationObserver(note).observe(s, {childList: true, characterData: true, subtree: true});
+          };
+          document.addEventListener('DOMContentLoaded', start);
+        })();
+    """)
+
+
+def test_snapshot_starts_and_answers_like_cpython(page, server):
+    headline = _live_couple(page, server)
+    assert page.get_attribute("body", "data-engine-mode") == "snapshot"
+    assert headline == _couple_headline()
+    assert FALLBACK not in page.inner_text("#engine-status")
+
+
+def test_snapshot_engine_computes_edits_like_cpython(page, server):
+    page.goto(f"{server}/couple.html")
+    seq = wait_live(page, 0)
+    assert page.get_attribute("body", "data-engine-mode") == "snapshot"
+    inputs = {**api.get("couple").example, "metal_a": "Mg", "metal_b": "Au"}
+    page.select_option("#f-metal_a", "Mg")
+    seq = wait_live(page, seq)
+    page.select_option("#f-metal_b", "Au")
+    wait_live(page, seq)
+    assert page.inner_text("#result .headline") == _headline(api.run("couple", inputs))
+
+
+def _fallback_checks(page, server):
+    _statuses(page)
+    headline = _live_couple(page, server)
+    assert page.get_attribute("body", "data-engine-mode") == "normal"
+    assert headline == _couple_headline()
+    status = page.inner_text("#engine-status")
+    assert FALLBACK in status and "normal start" in status, status
+    log = page.evaluate("() => window.__statusLog")
+    assert any(FALLBACK in s for s in log), log
+
+
+def test_garbage_snapshot_falls_back_visibly(page, context, server):
+    context.route(SNAPSHOT_FILE, lambda route: route.fulfill(
+        status=200, body=b"\x00garbage, not a snapshot" * 1000, content_type="application/gzip"))
+    _fallback_checks(page, server)
+
+
+def test_truncated_snapshot_falls_back_visibly(page, context, server, site_dir):
+    data = (site_dir / "packages" / "noblegap-snapshot.gzip").read_bytes()
+    context.route(SNAPSHOT_FILE, lambda route: route.fulfill(
+        status=200, body=data[: len(data) // 2], content_type="application/gzip"))
+    _fallback_checks(page, server)
+
+
+def test_valid_gzip_of_other_bytes_falls_back_visibly(page, context, server, site_dir):
+    info = json.loads((site_dir / "packages" / "noblegap-snapshot.json").read_text())
+    body = gzip.compress(b"\0" * info["raw_size"])   # right size, wrong content
+    context.route(SNAPSHOT_FILE, lambda route: route.fulfill(
+        status=200, body=body, content_type="application/gzip"))
+    _fallback_checks(page, server)
+
+
+def test_mismatched_build_id_falls_back_visibly(page, context, server, site_dir):
+    info = json.loads((site_dir / "packages" / "noblegap-snapshot.json").read_text())
+    info["build_id"] = "0" * 64
+    context.route(SNAPSHOT_INFO, lambda route: route.fulfill(
+        status=200, body=json.dumps(info), content_type="application/json"))
+    _fallback_checks(page, server)
+
+
+def test_wrong_known_answer_falls_back_visibly(page, context, server, site_dir):
+    info = json.loads((site_dir / "packages" / "noblegap-snapshot.json").read_text())
+    info["known_case"]["expect"]["anode"] = "Cu"
+    context.route(SNAPSHOT_INFO, lambda route: route.fulfill(
+        status=200, body=json.dumps(info), content_type="application/json"))
+    _fallback_checks(page, server)
+
+
+def test_missing_snapshot_falls_back_visibly(page, context, server):
+    context.route(SNAPSHOT_INFO, lambda route: route.fulfill(status=404, body="not found"))
+    _fallback_checks(page, server)
+
+
+@pytest.mark.parametrize("field", ["pyodide", "format"])
+def test_other_pyodide_or_format_falls_back(page, context, server, site_dir, field):
+    info = json.loads((site_dir / "packages" / "noblegap-snapshot.json").read_text())
+    info[field] = "0.0.1" if field == "pyodide" else 99
+    context.route(SNAPSHOT_INFO, lambda route: route.fulfill(
+        status=200, body=json.dumps(info), content_type="application/json"))
+    _fallback_checks(page, server)

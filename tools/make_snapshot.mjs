@@ -1,0 +1,65 @@
+// Make the engine's Pyodide memory snapshot at build time, under Node.
+//
+// usage: node tools/make_snapshot.mjs JOB.json
+//
+// JOB.json: {"site_dir": "site.tmp", "files_dir": "...", "files": ["pint/__init__.pyc", ...],
+//            "memory_out": ".../memory.bin"}
+//
+// Boots the site's own Pyodide (site_dir/pyodide) with the private option
+// _makeSnapshot, writes the package files (the lock's wheels, unpacked and
+// checked by build.py) into site-packages with the same installFiles() the
+// browser uses when it restores the snapshot, imports and warms noblegap (WARM_PY in
+// static/engine.mjs), and saves pyodide.makeMemorySnapshot() to memory_out.
+// loadPackage is not used: it leaves JavaScript objects behind that a
+// memory snapshot cannot hold.
+//
+// Prints one JSON object on stdout:
+//   {"python": "3.14.2", "pyodide": "314.0.8", "pyodide_build_id": "...",
+//    "memory_size": N, "site_packages": "/lib/python3.14/site-packages", "timings": {...}}
+import { readFile, writeFile } from "node:fs/promises";
+import { join, resolve } from "node:path";
+import { pathToFileURL } from "node:url";
+
+if (process.argv.length !== 3) {
+  console.error("usage: node tools/make_snapshot.mjs JOB.json");
+  process.exit(2);
+}
+const job = JSON.parse(await readFile(process.argv[2], "utf8"));
+const site = resolve(job.site_dir);
+const t0 = performance.now();
+const { loadPyodide, version } = await import(pathToFileURL(join(site, "pyodide", "pyodide.mjs")).href);
+const { installFiles, WARM_PY } = await import(pathToFileURL(join(site, "static", "engine.mjs")).href);
+const files = await Promise.all(
+  job.files.map(async (path) => [path, new Uint8Array(await readFile(join(job.files_dir, path)))]),
+);
+let sitePackages = null;
+const py = await loadPyodide({
+  indexURL: join(site, "pyodide") + "/",
+  lockFileURL: join(site, "packages", "noblegap-lock.json"),
+  stdout: (msg) => console.error(msg),
+  stderr: (msg) => console.error(msg),
+  _makeSnapshot: true,
+  fsInit: async (FS, info) => {
+    sitePackages = info.sitePackages;
+  },
+});
+const booted = performance.now() - t0;
+// After the boot, not in fsInit: files present while Pyodide starts are
+// registered as loaded packages, which leaves objects a snapshot cannot hold.
+installFiles(py.FS, sitePackages, files);
+py.runPython("import importlib; importlib.invalidate_caches()");
+py.runPython(WARM_PY);
+const warmed = performance.now() - t0;
+const python = py.runPython("import sys; '.'.join(map(str, sys.version_info[:3]))");
+const memory = py.makeMemorySnapshot();
+await writeFile(job.memory_out, memory);
+process.stdout.write(
+  JSON.stringify({
+    python,
+    pyodide: version,
+    pyodide_build_id: py._api.config.BUILD_ID,
+    memory_size: memory.length,
+    site_packages: sitePackages,
+    timings: { boot: booted, warm: warmed - booted, total: performance.now() - t0 },
+  }) + "\n",
+);
