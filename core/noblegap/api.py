@@ -12,7 +12,7 @@ import importlib
 import math
 
 from . import __version__
-from .errors import ChoiceError, NoblegapError
+from .errors import ChoiceError, InputError, NoblegapError
 
 # Modules that define CALCULATORS (a list of schema.Calculator), in page order.
 CALCULATOR_MODULES = ("electrodes", "couples", "galvanic", "nernst", "fasteners", "holidays")
@@ -74,6 +74,11 @@ def run(calc, inputs=None):
                        "inputs": raw, "result": result})
     except NoblegapError as exc:
         return _clean({"ok": False, "calc": calc, "inputs": raw, "error": exc.to_dict()})
+    except OverflowError as exc:
+        err = InputError("The values entered are too large or too small to compute with "
+                         f"({type(exc).__name__}).", allowed="values of a physical size; "
+                         "check the magnitudes and their units")
+        return _clean({"ok": False, "calc": calc, "inputs": raw, "error": err.to_dict()})
     except Exception as exc:  # noqa: BLE001 - last line of defence, never a traceback
         return {"ok": False, "calc": calc, "inputs": _clean(raw), "error": {
             "type": "InternalError", "kind": "internal", "field": None, "value": None,

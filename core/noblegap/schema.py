@@ -9,6 +9,7 @@ written twice.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field as dc_field
 from typing import Any, Callable
 
@@ -16,6 +17,11 @@ from . import units
 from .errors import ChoiceError, InputError, InputErrors, NoblegapError, RangeError
 
 QUANTITY, CHOICE, INTEGER, NUMBER, TEXT = "quantity", "choice", "integer", "number", "text"
+
+#: Magnitude ceiling (in SI units) for numeric fields that set no ``max``:
+#: far beyond any real joint (10^12 m², 31 700 years), and well inside what
+#: floating-point arithmetic handles without overflow.
+MAGNITUDE_LIMIT = 1e12
 
 
 @dataclass
@@ -99,6 +105,9 @@ class Field:
             except ValueError:
                 raise InputError("Not a number.", field=self.key, value=raw,
                                  allowed=self.allowed_text()) from None
+            if not math.isfinite(value):
+                raise InputError("The number is not finite.", field=self.key, value=raw,
+                                 allowed=self.allowed_text())
             if self.kind == INTEGER:
                 if value != int(value):
                     raise InputError("Must be a whole number.", field=self.key, value=raw,
@@ -123,6 +132,9 @@ class Field:
         return value
 
     def _check_range(self, value, raw):
+        if self.max is None and abs(value) > MAGNITUDE_LIMIT:
+            raise RangeError(f"{self.label} is too large to be a real value.", field=self.key,
+                             value=raw, allowed=self.allowed_text() + " (and of a physical size)")
         lo, hi = self.min, self.max
         bad = ((lo is not None and (value < lo if self.min_inclusive else value <= lo)) or
                (hi is not None and (value > hi if self.max_inclusive else value >= hi)))
