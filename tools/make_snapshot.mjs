@@ -49,6 +49,7 @@ const booted = performance.now() - t0;
 installFiles(py.FS, sitePackages, files);
 py.runPython("import importlib; importlib.invalidate_caches()");
 py.runPython(WARM_PY);
+const zeroFilled = zeroFreeMemory(py._module);
 const warmed = performance.now() - t0;
 const python = py.runPython("import sys; '.'.join(map(str, sys.version_info[:3]))");
 const memory = py.makeMemorySnapshot();
@@ -60,6 +61,38 @@ process.stdout.write(
     pyodide_build_id: py._api.config.BUILD_ID,
     memory_size: memory.length,
     site_packages: sitePackages,
+    zero_filled: zeroFilled,
     timings: { boot: booted, warm: warmed - booted, total: performance.now() - t0 },
   }) + "\n",
 );
+
+// Free heap blocks still hold what the build's imports and warm-up left in
+// them (file contents, freed objects); it is never read again, but it would
+// be saved and shipped. Claim every free malloc block that lies inside the
+// heap already in use (largest first, stopping a size as soon as malloc has
+// to extend the heap), zero it and free it again: the memory saves as ~0.9 MB
+// less gzip and more all-zero pages. Build-time only.
+function zeroFreeMemory(M) {
+  const held = [];
+  let bytes = 0;
+  const heapBefore = M.HEAPU8.length;
+  for (const size of [1 << 16, 1 << 14, 1 << 12, 1 << 10, 256, 64, 16, 8]) {
+    for (;;) {
+      const top = M._sbrk(0) >>> 0;
+      const p = M._malloc(size) >>> 0;
+      if (!p) break;
+      if ((M._sbrk(0) >>> 0) > top) {
+        M._free(p);
+        break;
+      }
+      M.HEAPU8.fill(0, p, p + size);
+      held.push(p);
+      bytes += size;
+    }
+  }
+  for (const p of held) M._free(p);
+  // The malloc that first needs more heap is freed at once, but if it had to
+  // grow the memory, the memory stays larger: all zeros, left out of the
+  // container, and only the snapshot's memory size shows it.
+  return { bytes, blocks: held.length, heap_grown_by: M.HEAPU8.length - heapBefore };
+}

@@ -2,6 +2,7 @@
 // All computation happens in the Python core inside the worker; this file only
 // moves inputs and renders the core's "display" structure with textContent.
 import { registerServiceWorker } from "./register-sw.js";
+import { worker, takeEarly } from "./boot.js";
 
 const schema = JSON.parse(document.getElementById("schema").textContent);
 const form = document.getElementById("inputs");
@@ -64,7 +65,7 @@ function toURL() {
 }
 
 // ---------- the engine worker ----------
-const worker = new Worker(new URL("./worker.js", import.meta.url), { type: "module" });
+// Started by static/boot.js (early, from <head>).
 worker.onerror = (ev) => {
   ev.preventDefault();
   engineFailed(ev.message || "the engine could not start");
@@ -291,8 +292,9 @@ function render(reply) {
 // ---------- events ----------
 function onEdit() {
   lastInputAt = performance.now();
-  toURL();
+  // The call goes to the worker first; the URL is updated while it computes.
   compute();
+  toURL();
 }
 form.addEventListener("input", onEdit);
 form.addEventListener("change", onEdit);
@@ -332,3 +334,9 @@ if (fromURL()) {
   resultBox.dataset.state = "example-stale";
 }
 document.body.dataset.engine = "loading";
+
+// What the worker said before this script took it over, in order.
+for (const ev of takeEarly()) {
+  if (ev.type === "error") worker.onerror(ev);
+  else worker.onmessage(ev);
+}

@@ -27,6 +27,8 @@ import { loadPyodide, version as PYODIDE_VERSION } from "../pyodide/pyodide.mjs"
 
 export const LOCK_FILE = "noblegap-lock.json";
 export const SNAPSHOT_INFO = "noblegap-snapshot.json";
+// The file the build's sidecar names (build.py SNAPSHOT_FILE).
+export const SNAPSHOT_FILE = "noblegap-snapshot.gzip";
 export const ENGINE_PACKAGE = "noblegap";
 // The snapshot container (after gunzip): MAGIC, u32 LE header length, the
 // header as JSON, the package files back to back, zero padding, then the
@@ -74,6 +76,15 @@ random.seed(int.from_bytes(os.urandom(32), "big"))
 importlib.invalidate_caches()
 `;
 
+// Run once the engine is imported and warm (both starts): the modules, unit
+// registry and tables live as long as the engine, so the cyclic garbage
+// collector stops re-scanning them (tens of thousands of objects) during
+// the user's edits. Objects made later are collected as usual.
+const FREEZE_PY = `
+import gc
+gc.freeze()
+`;
+
 function hex(buffer) {
   return [...new Uint8Array(buffer)].map((b) => b.toString(16).padStart(2, "0")).join("");
 }
@@ -92,8 +103,11 @@ export async function snapshotBuildId(pyodideVersion, lockSha256) {
  * Split a decompressed container into {header, files: [[path, bytes]], memory}.
  * The memory is stored without its all-zero pages: header.memory_runs lists
  * [first page, page count] of the pages kept, header.page_size their size.
+ * memory, if given, is the zero-filled buffer to copy them into (its length
+ * must be header.memory_size); nothing is written to it unless every check
+ * of the container has passed.
  */
-export function parseSnapshot(bytes) {
+export function parseSnapshot(bytes, memory = null) {
   const magic = new TextDecoder().decode(bytes.subarray(0, 8));
   if (magic !== SNAPSHOT_MAGIC) throw new Error("not a noblegap snapshot (bad magic)");
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
@@ -115,8 +129,11 @@ export function parseSnapshot(bytes) {
   if (offset > header.memory_offset || end !== bytes.length) {
     throw new Error(`snapshot is ${bytes.length} bytes, its header says ${end}`);
   }
+  if (memory === null) memory = new Uint8Array(header.memory_size);
+  if (memory.length !== header.memory_size) {
+    throw new Error(`snapshot memory is ${header.memory_size} bytes, its sidecar says ${memory.length}`);
+  }
   // A fresh buffer is zero-filled: only the stored pages are copied in.
-  const memory = new Uint8Array(header.memory_size);
   let from = header.memory_offset;
   for (const [first, count] of header.memory_runs) {
     const length = Math.min(count * pageSize, header.memory_size - first * pageSize);
@@ -304,24 +321,54 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
   // loadPyodide starts at once (the runtime downloads meanwhile); it waits
   // for the memory, which is only handed over once the sidecar matches.
   const checked = snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn);
+  // The file is requested at the same time as the sidecar (one round trip
+  // less); its bytes are used only if the sidecar names this file, and they
+  // must still have the sidecar's sha256.
+  const snapshotBase = new URL(snapshotInfoURL, "file:///");
+  const guessURL = new URL(SNAPSHOT_FILE, snapshotBase).href;
+  const early = fetchFn(guessURL);
+  const dropEarly = () => early.then((r) => r.body && r.body.cancel()).catch(() => {});
+  early.catch(() => {});
+  // No usable sidecar (the normal start follows): stop the download.
+  checked.catch(dropEarly);
+  // Pyodide needs only the memory's size to compile and instantiate its
+  // WebAssembly, and reads the memory itself only after fsInit below has
+  // returned: so it gets a zero-filled buffer of the sidecar's size at once,
+  // compiles while the snapshot downloads and unpacks, and fsInit waits for
+  // the pages to be copied in. Should the container fail, the buffer stays
+  // all zeros, Pyodide rejects it (bad magic number) and the normal start
+  // follows with the container's own error as the reason.
+  const memory = checked.then((info) => {
+    const size = info.memory_size;
+    if (!Number.isInteger(size) || size <= 0 || size % 4 !== 0) {
+      throw new Error(`snapshot sidecar gives a bad memory size ${JSON.stringify(size)}`);
+    }
+    return new Uint8Array(size);
+  });
   const container = (async () => {
     const info = await checked;
     mark("snapshot info checked");
-    const url = new URL(info.file, new URL(snapshotInfoURL, "file:///")).href;
+    const url = new URL(info.file, snapshotBase).href;
     // Not fetch's integrity option: it would hold the body until the last
     // byte; the sha256 is checked on the same bytes while they unpack.
-    const response = await fetchFn(url);
+    let response;
+    if (url === guessURL) {
+      response = await early;
+    } else {
+      dropEarly();
+      response = await fetchFn(url);
+    }
     if (!response.ok) throw new Error(`snapshot file: HTTP ${response.status}`);
     mark("snapshot response");
     const bytes = await gunzipChecked(response, info);
     mark("snapshot unpacked");
-    return parseSnapshot(bytes);
+    return parseSnapshot(bytes, await memory);
   })();
-  const memory = container.then((c) => c.memory);
   // loadPyodide awaits the memory only after it has loaded its own script:
   // keep an early rejection from surfacing as unhandled meanwhile (it still
   // rejects loadPyodide, and so starts the normal way).
   for (const promise of [checked, container, memory]) promise.catch(() => {});
+  let containerError = null;
   const pyodide = await loadPyodide({
     indexURL,
     lockFileURL,
@@ -329,14 +376,26 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
     stderr,
     checkAPIVersion: true,
     _loadSnapshot: memory,
-    // Runs after the memory is in place and before Python resumes: the
-    // files the snapshot's imports came from go back where they were.
+    // Runs once the WebAssembly is instantiated and before Python resumes
+    // from the memory: wait for the memory's pages, and the files the
+    // snapshot's imports came from go back where they were. Never throws
+    // (Pyodide does not await this hook's errors): a failure is kept and
+    // reported instead of Pyodide's complaint about the empty memory.
     fsInit: async (FS, { sitePackages }) => {
-      phase("restore snapshot");
-      installFiles(FS, sitePackages, (await container).files);
-      mark("files installed");
+      mark("runtime instantiated");
+      try {
+        const { files } = await container;
+        phase("restore snapshot");
+        installFiles(FS, sitePackages, files);
+        mark("files installed");
+      } catch (err) {
+        containerError = err;
+      }
     },
+  }).catch((err) => {
+    throw containerError ?? err;
   });
+  if (containerError) throw containerError;
   const info = await checked;
   phase("check engine");
   pyodide.runPython(AFTER_RESTORE_PY);
@@ -344,6 +403,7 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
   const known = info.known_case;
   const problem = knownCaseError(bound.run(known.calc, known.inputs), known.expect);
   if (problem) throw new Error(problem);
+  pyodide.runPython(FREEZE_PY);
   return { pyodide, ...bound, mode: "snapshot" };
 }
 
@@ -378,5 +438,6 @@ async function startNormally({ indexURL, lockFileURL, stdout, stderr, phase }) {
   const schema = bound.describe();
   const first = (schema.calculators ?? [])[0];
   if (first) bound.run(first.name, first.example ?? {});
+  pyodide.runPython(FREEZE_PY);
   return { pyodide, ...bound, mode: "normal" };
 }

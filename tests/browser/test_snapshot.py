@@ -133,3 +133,22 @@ def test_other_pyodide_or_format_falls_back(page, context, server, site_dir, fie
     context.route(SNAPSHOT_INFO, lambda route: route.fulfill(
         status=200, body=json.dumps(info), content_type="application/json"))
     _fallback_checks(page, server)
+
+
+def test_one_engine_worker_started_from_head(page, server):
+    # static/boot.js (async in <head>) and app.js (which imports it) must
+    # share one worker, and the progress messages the worker sent before
+    # app.js took it over still reach the page.
+    page.add_init_script("""
+        (() => {
+          window.__workers = 0;
+          const Native = window.Worker;
+          window.Worker = class extends Native {
+            constructor(...args) { super(...args); window.__workers += 1; }
+          };
+        })();
+    """)
+    headline = _live_couple(page, server)
+    assert headline == _couple_headline()
+    assert page.evaluate("() => window.__workers") == 1
+    assert page.get_attribute("body", "data-engine-phase") == "ready"

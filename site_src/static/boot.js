@@ -1,0 +1,18 @@
+// Starts the engine worker as early as the page can: calc pages load this
+// module with <script type="module" async> in <head>, so it runs as soon as
+// it has arrived, before the page has been parsed and before app.js and its
+// imports have been fetched. app.js imports it too: a module runs once per
+// page, so there is one worker whichever script gets here first. The
+// worker's messages are kept until app.js takes them with takeEarly().
+export const worker = new Worker(new URL("./worker.js", import.meta.url), { type: "module" });
+const kept = [];
+const keep = (event) => kept.push(event);
+worker.addEventListener("message", keep);
+worker.addEventListener("error", keep);
+
+/** Stop keeping messages; returns the events received so far, in order. */
+export function takeEarly() {
+  worker.removeEventListener("message", keep);
+  worker.removeEventListener("error", keep);
+  return kept.splice(0);
+}
