@@ -316,6 +316,11 @@ async function snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn) {
   return info;
 }
 
+// The loadPyodide options both boots share: our files, our lock, our output.
+function runtimeOptions({ indexURL, lockFileURL, stdout, stderr }) {
+  return { indexURL, lockFileURL, stdout, stderr, checkAPIVersion: true };
+}
+
 async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark }) {
   phase("fetch runtime", "Fetching the Python runtime and the prepared engine");
   // loadPyodide starts at once (the runtime downloads meanwhile); it waits
@@ -370,11 +375,7 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
   for (const promise of [checked, container, memory]) promise.catch(() => {});
   let containerError = null;
   const pyodide = await loadPyodide({
-    indexURL,
-    lockFileURL,
-    stdout,
-    stderr,
-    checkAPIVersion: true,
+    ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
     _loadSnapshot: memory,
     // Runs once the WebAssembly is instantiated and before Python resumes
     // from the memory: wait for the memory's pages, and the files the
@@ -410,11 +411,7 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
 async function startNormally({ indexURL, lockFileURL, stdout, stderr, phase }) {
   phase("fetch runtime");
   const pyodide = await loadPyodide({
-    indexURL,
-    lockFileURL,
-    stdout,
-    stderr,
-    checkAPIVersion: true,
+    ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
     // Called once the runtime is downloaded and instantiated, just before
     // the interpreter starts.
     fsInit: async () => phase("start Python"),
