@@ -73,8 +73,10 @@ SNAPSHOT_INFO = "noblegap-snapshot.json"
 # Not ".gz": some static hosts would send Content-Encoding: gzip for it, and
 # the browser would then hand the worker bytes it cannot check or unpack.
 SNAPSHOT_FILE = "noblegap-snapshot.gzip"
-SNAPSHOT_FORMAT = 1
-SNAPSHOT_MAGIC = b"NGSNAP01"
+SNAPSHOT_FORMAT = 2
+SNAPSHOT_MAGIC = b"NGSNAP02"
+# What the snapshot is made with: a change to any of them makes a new one.
+SNAPSHOT_TOOLS = (TOOLS / "make_snapshot.mjs", STATIC / "engine.mjs", STATIC / "restore.mjs")
 # The memory snapshot uses loadPyodide options that Pyodide marks private
 # (_makeSnapshot, _loadSnapshot) and a container layout of its own. They were
 # reviewed for these Pyodide versions and build ids only; after a pin bump,
@@ -500,42 +502,63 @@ def _unpack_locked_wheels(packages: Path, lock: dict) -> dict[str, bytes]:
 SNAPSHOT_PAGE = 4096
 
 
-def _snapshot_container(files: dict[str, bytes], memory: bytes, pin: dict) -> bytes:
-    """MAGIC, u32 header length, header JSON, files, zero padding, memory's non-zero pages.
+def _xor(a: bytes, b: bytes) -> bytes:
+    return (int.from_bytes(a, "little") ^ int.from_bytes(b, "little")).to_bytes(len(a), "little")
 
-    All-zero pages of the memory are left out (``memory_runs`` lists the
-    [first page, count] runs kept): the browser starts from a zeroed buffer,
-    so it unpacks fewer bytes (~21 MB of the 31.5 MB memory).
+
+def _snapshot_container(files: dict[str, bytes], memory: bytes, base: bytes, pin: dict) -> bytes:
+    """MAGIC, u32 header length, header JSON, Pyodide's header, padding, heap pages.
+
+    ``memory`` is Pyodide's memory snapshot (its own header, then the whole
+    heap); ``base`` the runtime's heap when it was instantiated, before
+    Python ran (static/restore.mjs describes the format). Each heap page is
+    stored XOR the same page of the base (zeros past the base), and pages
+    that come out all zero are left out (``memory_runs`` lists the [first
+    page, count] runs kept). The package files are listed, not stored: the
+    browser unpacks them from the lock's wheels.
     """
     page = SNAPSHOT_PAGE
+    prefix_size = int.from_bytes(memory[4:8], "little")
+    if prefix_size % 4 or not 12 <= prefix_size < len(memory):
+        raise BuildError(f"Pyodide's snapshot header is {prefix_size} bytes: not a snapshot this build knows")
+    heap = memory[prefix_size:]
+    zero = bytes(page)
+    # the base up to its last non-zero page
+    base_pages = (len(base) + page - 1) // page
+    while base_pages and base[(base_pages - 1) * page:base_pages * page].strip(b"\0") == b"":
+        base_pages -= 1
+    base = base[:base_pages * page].ljust(base_pages * page, b"\0")
+    if len(base) > len(heap):
+        raise BuildError("the runtime's initial heap is larger than the snapshot's")
     runs: list[list[int]] = []
     kept = []
-    zero = bytes(page)
-    for i in range(0, (len(memory) + page - 1) // page):
-        chunk = memory[i * page:(i + 1) * page]
-        if chunk == zero[:len(chunk)]:
+    for i in range(0, (len(heap) + page - 1) // page):
+        chunk = heap[i * page:(i + 1) * page].ljust(page, b"\0")
+        if i < base_pages:
+            chunk = _xor(chunk, base[i * page:(i + 1) * page])
+        if chunk == zero:
             continue
-        kept.append(chunk.ljust(page, b"\0"))
+        kept.append(chunk)
         if runs and runs[-1][0] + runs[-1][1] == i:
             runs[-1][1] += 1
         else:
             runs.append([i, 1])
-    total = sum(len(d) for d in files.values())
+    prefix = memory[:prefix_size]
     offset = 0
     while True:
         header = json.dumps({
             "format": SNAPSHOT_FORMAT, "pyodide": pin["version"],
             "files": [[name, len(data)] for name, data in files.items()],
-            "memory_offset": offset, "memory_size": len(memory), "page_size": page,
+            "prefix_size": prefix_size, "memory_offset": offset, "memory_size": len(memory),
+            "page_size": page, "base": {"size": len(base), "sha256": hashlib.sha256(base).hexdigest()},
             "memory_runs": runs,
         }, separators=(",", ":")).encode()
-        start = 12 + len(header) + total
+        start = 12 + len(header) + prefix_size
         aligned = (start + 15) // 16 * 16
         if aligned == offset:
             break
         offset = aligned
-    parts = [SNAPSHOT_MAGIC, len(header).to_bytes(4, "little"), header, *files.values(),
-             b"\0" * (offset - start), *kept]
+    parts = [SNAPSHOT_MAGIC, len(header).to_bytes(4, "little"), header, prefix, b"\0" * (offset - start), *kept]
     return b"".join(parts)
 
 
@@ -568,7 +591,7 @@ def make_snapshot(site: Path, pin: dict, api) -> dict | None:
     files = _unpack_locked_wheels(packages, lock)
     lock_sha = hashlib.sha256(lock_bytes).hexdigest()
     tool_hash = hashlib.sha256(
-        (TOOLS / "make_snapshot.mjs").read_bytes() + (STATIC / "engine.mjs").read_bytes()
+        b"".join((p).read_bytes() for p in SNAPSHOT_TOOLS)
     ).hexdigest()
     key = hashlib.sha256(
         f"{lock_sha}|{pin['version']}|{tool_hash}|{SNAPSHOT_FORMAT}|{SNAPSHOT_PAGE}".encode()
@@ -582,7 +605,7 @@ def make_snapshot(site: Path, pin: dict, api) -> dict | None:
                 (fdir / name).parent.mkdir(parents=True, exist_ok=True)
                 (fdir / name).write_bytes(data)
             job = {"site_dir": str(site), "files_dir": str(fdir), "files": list(files),
-                   "memory_out": str(Path(tmp) / "memory.bin")}
+                   "memory_out": str(Path(tmp) / "memory.bin"), "base_out": str(Path(tmp) / "base.bin")}
             (Path(tmp) / "job.json").write_text(json.dumps(job))
             log(f"making the engine's memory snapshot inside Pyodide {pin['version']}")
             proc = subprocess.run(["node", str(TOOLS / "make_snapshot.mjs"), str(Path(tmp) / "job.json")],
@@ -600,7 +623,7 @@ def make_snapshot(site: Path, pin: dict, api) -> dict | None:
                 shutil.rmtree(cdir)
             cdir.mkdir(parents=True)
             memory = (Path(tmp) / "memory.bin").read_bytes()
-            container = _snapshot_container(files, memory, pin)
+            container = _snapshot_container(files, memory, (Path(tmp) / "base.bin").read_bytes(), pin)
             gz_path.write_bytes(gzip.compress(container, compresslevel=9, mtime=0))
             shutil.copyfile(Path(tmp) / "memory.bin", memory_path)
             report["raw_size"] = len(container)

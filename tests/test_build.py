@@ -200,40 +200,114 @@ def test_snapshot_known_case_is_cpython_answer(snapshot_info):
     assert case["expect"]["headline"] == result["result"]["display"]["headline"]
 
 
-def test_snapshot_holds_exactly_the_locked_wheels_files(site, snapshot_info, lock):
+def _wasm_data_segments(wasm: bytes):
+    """Active data segments of a WebAssembly binary, [(offset, bytes)]: an
+    independent reader (restore.mjs has the browser's)."""
+    def leb(at, signed=False):
+        result = shift = 0
+        while True:
+            byte = wasm[at]
+            at += 1
+            result |= (byte & 0x7F) << shift
+            shift += 7
+            if not byte & 0x80:
+                if signed and byte & 0x40:
+                    result -= 1 << shift
+                return result, at
+
+    assert wasm[:4] == b"\0asm"
+    segments, at = [], 8
+    while at < len(wasm):
+        section, (size, body) = wasm[at], leb(at + 1)
+        at = body + size
+        if section != 11:
+            continue
+        count, p = leb(body)
+        for _ in range(count):
+            flags, p = leb(p)
+            assert flags in (0, 1)
+            offset = None
+            if flags == 0:
+                assert wasm[p] == 0x41
+                offset, p = leb(p + 1, signed=True)
+                assert wasm[p] == 0x0B
+                p += 1
+            length, p = leb(p)
+            if offset is not None:
+                segments.append((offset & 0xFFFFFFFF, wasm[p:p + length]))
+            p += length
+    return segments
+
+
+def test_snapshot_lists_exactly_the_locked_wheels_files(site, snapshot_info, lock):
     data, header, offset = _container(site, snapshot_info)
     assert len(data) == snapshot_info["raw_size"]
-    expected = {}
+    expected = []
     for entry in lock["packages"].values():
         with zipfile.ZipFile(site / build.PACKAGES_DIR / entry["file_name"]) as zf:
-            for info in zf.infolist():
-                if not info.is_dir():
-                    expected[info.filename] = zf.read(info)
-    got = {}
-    for name, size in header["files"]:
-        got[name] = data[offset:offset + size]
-        offset += size
-    assert got == expected
-    # memory: 16-byte aligned after the files, only non-zero pages stored
-    assert header["memory_offset"] % 16 == 0 and header["memory_offset"] >= offset
+            expected += [[info.filename, info.file_size] for info in zf.infolist() if not info.is_dir()]
+    # listed, sorted as the browser sorts what it unpacks, and not stored:
+    # the browser unpacks them from the wheels it fetches anyway
+    assert header["files"] == sorted(expected)
+    assert header["memory_offset"] == (offset + header["prefix_size"] + 15) // 16 * 16
     pages = sum(count for _, count in header["memory_runs"])
     assert len(data) == header["memory_offset"] + pages * header["page_size"]
-    assert pages * header["page_size"] < header["memory_size"]
+    assert pages * header["page_size"] < header["memory_size"] / 2
     assert header["memory_size"] == snapshot_info["memory_size"]
+
+
+def test_snapshot_base_is_the_runtimes_data_segments(site, snapshot_info):
+    _, header, _ = _container(site, snapshot_info)
+    wasm = (site / "pyodide" / "pyodide.asm.wasm").read_bytes()
+    segments = _wasm_data_segments(wasm)
+    end = max(offset + len(chunk) for offset, chunk in segments)
+    image = bytearray(end)
+    for offset, chunk in segments:
+        image[offset:offset + len(chunk)] = chunk
+    size = header["base"]["size"]
+    assert size % header["page_size"] == 0 and 0 < end <= size < end + header["page_size"]
+    image = bytes(image).ljust(size, b"\0")
+    assert hashlib.sha256(image).hexdigest() == header["base"]["sha256"]
+
+
+def _rebuild(data, base_image):
+    """Pyodide's memory from a container, the way restore.mjs applySnapshot does."""
+    length = int.from_bytes(data[8:12], "little")
+    header = json.loads(data[12:12 + length])
+    page, prefix = header["page_size"], header["prefix_size"]
+    out = bytearray(header["memory_size"])
+    out[:prefix] = data[12 + length:12 + length + prefix]
+    out[prefix:prefix + len(base_image)] = base_image
+    at = header["memory_offset"]
+    for first, count in header["memory_runs"]:
+        for i in range(first, first + count):
+            start = prefix + i * page
+            chunk = data[at:at + page][:len(out) - start]
+            out[start:start + len(chunk)] = bytes(x ^ y for x, y in zip(out[start:start + len(chunk)], chunk))
+            at += page
+    return header, bytes(out)
 
 
 def test_snapshot_container_round_trip():
     pin = {"version": "0"}
     page = build.SNAPSHOT_PAGE
-    memory = bytes(page) + b"\x01" * 10 + bytes(page - 10) + bytes(2 * page) + b"\x02" * page
-    data = build._snapshot_container({"a/b.py": b"xyz"}, memory, pin)
-    length = int.from_bytes(data[8:12], "little")
-    header = json.loads(data[12:12 + length])
-    assert header["memory_runs"] == [[1, 1], [4, 1]]
-    assert data[12 + length:12 + length + 3] == b"xyz"
-    rebuilt = bytearray(header["memory_size"])
-    at = header["memory_offset"]
-    for first, count in header["memory_runs"]:
-        rebuilt[first * page:(first + count) * page] = data[at:at + count * page]
-        at += count * page
-    assert bytes(rebuilt) == memory
+    prefix = b"snp\0" + (16).to_bytes(4, "little") + b"12345678"
+    base = b"\x05" * 10 + bytes(page - 10) + b"\x07" * page + bytes(page)   # trailing zero page dropped
+    heap = (b"\x05" * 10 + bytes(page - 10)           # page 0: same as the base -> left out
+            + b"\x07" * 100 + b"\x09" * (page - 100)  # page 1: differs from the base
+            + bytes(page)                             # page 2: zeros -> left out
+            + b"\x02" * 5 + bytes(page - 5)           # page 3: past the base
+            + b"\x03" * 7)                            # a partial last page
+    memory = prefix + heap
+    data = build._snapshot_container({"a/b.py": b"xyz"}, memory, base, pin)
+    header, rebuilt = _rebuild(data, base[:2 * page])
+    assert header["files"] == [["a/b.py", 3]] and b"xyz" not in data
+    assert header["base"]["size"] == 2 * page
+    assert header["base"]["sha256"] == hashlib.sha256(base[:2 * page]).hexdigest()
+    assert header["memory_runs"] == [[1, 1], [3, 2]]
+    assert rebuilt == memory
+
+
+def test_snapshot_container_refuses_an_unknown_pyodide_header():
+    with pytest.raises(build.BuildError, match="not a snapshot"):
+        build._snapshot_container({}, b"snp\0" + (7).to_bytes(4, "little") + bytes(64), b"", {"version": "0"})

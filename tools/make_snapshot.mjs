@@ -3,13 +3,16 @@
 // usage: node tools/make_snapshot.mjs JOB.json
 //
 // JOB.json: {"site_dir": "site.tmp", "files_dir": "...", "files": ["pint/__init__.pyc", ...],
-//            "memory_out": ".../memory.bin"}
+//            "memory_out": ".../memory.bin", "base_out": ".../base.bin"}
 //
 // Boots the site's own Pyodide (site_dir/pyodide) with the private option
 // _makeSnapshot, writes the package files (the lock's wheels, unpacked and
 // checked by build.py) into site-packages with the same installFiles() the
 // browser uses when it restores the snapshot, imports and warms noblegap (WARM_PY in
 // static/engine.mjs), and saves pyodide.makeMemorySnapshot() to memory_out.
+// base_out gets the heap the runtime's data segments make (dataSegmentsImage
+// in static/restore.mjs, as the browser computes it): build.py stores the
+// snapshot as a delta against it.
 // loadPackage is not used: it leaves JavaScript objects behind that a
 // memory snapshot cannot hold.
 //
@@ -29,10 +32,13 @@ const site = resolve(job.site_dir);
 const t0 = performance.now();
 const { loadPyodide, version } = await import(pathToFileURL(join(site, "pyodide", "pyodide.mjs")).href);
 const { installFiles, WARM_PY } = await import(pathToFileURL(join(site, "static", "engine.mjs")).href);
+const { captureRuntimeWasm, dataSegmentsImage } = await import(pathToFileURL(join(site, "static", "restore.mjs")).href);
 const files = await Promise.all(
   job.files.map(async (path) => [path, new Uint8Array(await readFile(join(job.files_dir, path)))]),
 );
 let sitePackages = null;
+let base = null;
+const capture = captureRuntimeWasm();
 const py = await loadPyodide({
   indexURL: join(site, "pyodide") + "/",
   lockFileURL: join(site, "packages", "noblegap-lock.json"),
@@ -41,8 +47,15 @@ const py = await loadPyodide({
   _makeSnapshot: true,
   fsInit: async (FS, info) => {
     sitePackages = info.sitePackages;
+    const wasm = capture.bytes();
+    capture.release();
+    if (!wasm) throw new Error("the runtime's WebAssembly was not seen");
+    base = dataSegmentsImage(await wasm);
   },
 });
+capture.release();
+if (!base) throw new Error("fsInit did not run");
+await writeFile(job.base_out, base);
 const booted = performance.now() - t0;
 // After the boot, not in fsInit: files present while Pyodide starts are
 // registered as loaded packages, which leaves objects a snapshot cannot hold.
@@ -91,8 +104,19 @@ function zeroFreeMemory(M) {
     }
   }
   for (const p of held) M._free(p);
+  // The C stack grows down from its base to its end; below the current
+  // stack pointer lie only frames that have returned (the imports' and the
+  // warm-up's deepest calls). No C code is running now (this is JavaScript
+  // between calls), so nothing reads them again.
+  const stackEnd = M._emscripten_stack_get_end() >>> 0;
+  const stackPointer = M._emscripten_stack_get_current() >>> 0;
+  let stackBytes = 0;
+  if (stackEnd < stackPointer && stackPointer <= (M._emscripten_stack_get_base() >>> 0)) {
+    for (let i = stackEnd; i < stackPointer; i++) stackBytes += M.HEAPU8[i] !== 0;
+    M.HEAPU8.fill(0, stackEnd, stackPointer);
+  }
   // The malloc that first needs more heap is freed at once, but if it had to
   // grow the memory, the memory stays larger: all zeros, left out of the
   // container, and only the snapshot's memory size shows it.
-  return { bytes, blocks: held.length, heap_grown_by: M.HEAPU8.length - heapBefore };
+  return { bytes, blocks: held.length, heap_grown_by: M.HEAPU8.length - heapBefore, stack: [stackEnd, stackPointer, M._emscripten_stack_get_base() >>> 0, stackBytes] };
 }

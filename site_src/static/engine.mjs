@@ -12,10 +12,13 @@
 // * snapshot (the fast start): the build boots Pyodide under Node, installs
 //   the engine's packages, imports and warms noblegap and saves the WebAssembly
 //   memory (packages/noblegap-snapshot.json names the file and how to check
-//   it). Here the memory is restored instead of starting Python, the package
-//   files are written back into site-packages (lazy imports and data tables
-//   read them), Python's random state is re-seeded, and a known case must
-//   give the answer the build recorded.
+//   it; static/restore.mjs describes the container). Here the memory is
+//   restored instead of starting Python: the runtime is instantiated while the
+//   snapshot downloads, its data segments are the base the snapshot is a
+//   delta against, the package files are unpacked from the lock's wheels back into
+//   site-packages (lazy imports and data tables read them), Python's random
+//   state is re-seeded, and a known case must give the answer the build
+//   recorded.
 // * normal: loadPyodide, loadPackage from the lock file (every wheel checked
 //   with Subresource Integrity), import noblegap.api and warm it.
 //
@@ -24,17 +27,24 @@
 // progress message "snapshot unusable — normal start" and the ready message's
 // mode "normal" with a note saying why.
 import { loadPyodide, version as PYODIDE_VERSION } from "../pyodide/pyodide.mjs";
+import {
+  SNAPSHOT_FORMAT,
+  applySnapshot,
+  captureRuntimeWasm,
+  checkFileList,
+  dataSegmentsImage,
+  lockedFiles,
+  parseSnapshot,
+  sha256Hex,
+} from "./restore.mjs";
+
+export { SNAPSHOT_FORMAT, sha256Hex };
 
 export const LOCK_FILE = "noblegap-lock.json";
 export const SNAPSHOT_INFO = "noblegap-snapshot.json";
 // The file the build's sidecar names (build.py SNAPSHOT_FILE).
 export const SNAPSHOT_FILE = "noblegap-snapshot.gzip";
 export const ENGINE_PACKAGE = "noblegap";
-// The snapshot container (after gunzip): MAGIC, u32 LE header length, the
-// header as JSON, the package files back to back, zero padding, then the
-// Pyodide memory snapshot's non-zero pages from header.memory_offset.
-export const SNAPSHOT_FORMAT = 1;
-export const SNAPSHOT_MAGIC = "NGSNAP01";
 export const FALLBACK_LABEL = "snapshot unusable — normal start";
 
 // Loading phases in order, with the share of the loading bar reached when
@@ -85,62 +95,9 @@ import gc
 gc.freeze()
 `;
 
-function hex(buffer) {
-  return [...new Uint8Array(buffer)].map((b) => b.toString(16).padStart(2, "0")).join("");
-}
-
-export async function sha256Hex(data) {
-  const bytes = typeof data === "string" ? new TextEncoder().encode(data) : data;
-  return hex(await crypto.subtle.digest("SHA-256", bytes));
-}
-
 /** The id a snapshot must carry for this Pyodide and this lock file. */
 export async function snapshotBuildId(pyodideVersion, lockSha256) {
   return sha256Hex(`noblegap-snapshot/${SNAPSHOT_FORMAT}|pyodide ${pyodideVersion}|lock ${lockSha256}`);
-}
-
-/**
- * Split a decompressed container into {header, files: [[path, bytes]], memory}.
- * The memory is stored without its all-zero pages: header.memory_runs lists
- * [first page, page count] of the pages kept, header.page_size their size.
- * memory, if given, is the zero-filled buffer to copy them into (its length
- * must be header.memory_size); nothing is written to it unless every check
- * of the container has passed.
- */
-export function parseSnapshot(bytes, memory = null) {
-  const magic = new TextDecoder().decode(bytes.subarray(0, 8));
-  if (magic !== SNAPSHOT_MAGIC) throw new Error("not a noblegap snapshot (bad magic)");
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const headerLength = view.getUint32(8, true);
-  if (12 + headerLength > bytes.length) throw new Error("snapshot header is truncated");
-  const header = JSON.parse(new TextDecoder().decode(bytes.subarray(12, 12 + headerLength)));
-  let offset = 12 + headerLength;
-  const files = [];
-  for (const [path, size] of header.files) {
-    if (typeof path !== "string" || path.startsWith("/") || path.split("/").includes("..")) {
-      throw new Error(`snapshot lists a bad path ${JSON.stringify(path)}`);
-    }
-    files.push([path, bytes.subarray(offset, offset + size)]);
-    offset += size;
-  }
-  const pageSize = header.page_size;
-  const stored = header.memory_runs.reduce((n, [, count]) => n + count, 0) * pageSize;
-  const end = header.memory_offset + stored;
-  if (offset > header.memory_offset || end !== bytes.length) {
-    throw new Error(`snapshot is ${bytes.length} bytes, its header says ${end}`);
-  }
-  if (memory === null) memory = new Uint8Array(header.memory_size);
-  if (memory.length !== header.memory_size) {
-    throw new Error(`snapshot memory is ${header.memory_size} bytes, its sidecar says ${memory.length}`);
-  }
-  // A fresh buffer is zero-filled: only the stored pages are copied in.
-  let from = header.memory_offset;
-  for (const [first, count] of header.memory_runs) {
-    const length = Math.min(count * pageSize, header.memory_size - first * pageSize);
-    memory.set(bytes.subarray(from, from + length), first * pageSize);
-    from += count * pageSize;
-  }
-  return { header, files, memory };
 }
 
 /** Write the package files of a snapshot (or of the build) into site-packages. */
@@ -297,7 +254,8 @@ function warmer(engine) {
   };
 }
 
-// The sidecar, checked against this Pyodide and the lock file it will load.
+// The sidecar, checked against this Pyodide and the lock file it will load;
+// returns {info, lock}.
 async function snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn) {
   const [infoResponse, lockResponse] = await Promise.all([
     fetchFn(snapshotInfoURL, { cache: "no-cache" }),
@@ -306,14 +264,19 @@ async function snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn) {
   if (!infoResponse.ok) throw new Error(`no snapshot (${infoResponse.status})`);
   if (!lockResponse.ok) throw new Error(`no lock file (${lockResponse.status})`);
   const info = await infoResponse.json();
-  const lockSha = await sha256Hex(new Uint8Array(await lockResponse.arrayBuffer()));
+  const lockBytes = new Uint8Array(await lockResponse.arrayBuffer());
+  const lockSha = await sha256Hex(lockBytes);
   if (info.format !== SNAPSHOT_FORMAT) throw new Error(`snapshot format ${info.format}, expected ${SNAPSHOT_FORMAT}`);
   if (info.pyodide !== PYODIDE_VERSION) {
     throw new Error(`snapshot made with Pyodide ${info.pyodide}, this is ${PYODIDE_VERSION}`);
   }
   const buildId = await snapshotBuildId(PYODIDE_VERSION, lockSha);
   if (info.build_id !== buildId) throw new Error("snapshot build id does not match this Pyodide and lock file");
-  return info;
+  const size = info.memory_size;
+  if (!Number.isInteger(size) || size <= 0 || size % 4 !== 0) {
+    throw new Error(`snapshot sidecar gives a bad memory size ${JSON.stringify(size)}`);
+  }
+  return { info, lock: JSON.parse(new TextDecoder().decode(lockBytes)) };
 }
 
 // The loadPyodide options both boots share: our files, our lock, our output.
@@ -339,19 +302,13 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
   // Pyodide needs only the memory's size to compile and instantiate its
   // WebAssembly, and reads the memory itself only after fsInit below has
   // returned: so it gets a zero-filled buffer of the sidecar's size at once,
-  // compiles while the snapshot downloads and unpacks, and fsInit waits for
-  // the pages to be copied in. Should the container fail, the buffer stays
-  // all zeros, Pyodide rejects it (bad magic number) and the normal start
-  // follows with the container's own error as the reason.
-  const memory = checked.then((info) => {
-    const size = info.memory_size;
-    if (!Number.isInteger(size) || size <= 0 || size % 4 !== 0) {
-      throw new Error(`snapshot sidecar gives a bad memory size ${JSON.stringify(size)}`);
-    }
-    return new Uint8Array(size);
-  });
+  // compiles while the snapshot downloads and unpacks, and fsInit fills the
+  // buffer. Should anything fail, the buffer stays all zeros, Pyodide
+  // rejects it (bad magic number) and the normal start follows with the
+  // real error as the reason.
+  const memory = checked.then(({ info }) => new Uint8Array(info.memory_size));
   const container = (async () => {
-    const info = await checked;
+    const { info } = await checked;
     mark("snapshot info checked");
     const url = new URL(info.file, snapshotBase).href;
     // Not fetch's integrity option: it would hold the body until the last
@@ -367,37 +324,55 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
     mark("snapshot response");
     const bytes = await gunzipChecked(response, info);
     mark("snapshot unpacked");
-    return parseSnapshot(bytes, await memory);
+    return parseSnapshot(bytes, info.memory_size);
   })();
+  // The package files, from the same wheels the normal start would load.
+  const files = checked.then(({ lock }) => lockedFiles(lock, lockFileURL, fetchFn));
   // loadPyodide awaits the memory only after it has loaded its own script:
   // keep an early rejection from surfacing as unhandled meanwhile (it still
   // rejects loadPyodide, and so starts the normal way).
-  for (const promise of [checked, container, memory]) promise.catch(() => {});
+  for (const promise of [checked, container, memory, files]) promise.catch(() => {});
+  // The runtime's binary, for the data segments the snapshot is a delta against.
+  const capture = captureRuntimeWasm();
   let containerError = null;
   const pyodide = await loadPyodide({
     ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
     _loadSnapshot: memory,
     // Runs once the WebAssembly is instantiated and before Python resumes
-    // from the memory: wait for the memory's pages, and the files the
-    // snapshot's imports came from go back where they were. Never throws
-    // (Pyodide does not await this hook's errors): a failure is kept and
-    // reported instead of Pyodide's complaint about the empty memory.
+    // from the memory: rebuild the memory from the runtime's data segments
+    // and the snapshot's pages, and put the package files back where the build had them.
+    // Never throws (Pyodide does not await this hook's errors): a failure
+    // is kept and reported instead of Pyodide's complaint about the empty
+    // memory.
     fsInit: async (FS, { sitePackages }) => {
       mark("runtime instantiated");
       try {
-        const { files } = await container;
+        const wasm = capture.bytes();
+        capture.release();
+        if (!wasm) throw new Error("the runtime's WebAssembly was not seen");
+        const snapshot = await container;
+        const base = dataSegmentsImage(await wasm, snapshot.header.base.size);
+        if ((await sha256Hex(base)) !== snapshot.header.base.sha256) {
+          throw new Error("the runtime's data segments differ from the ones the snapshot was made against");
+        }
         phase("restore snapshot");
-        installFiles(FS, sitePackages, files);
+        applySnapshot(snapshot, await memory, base);
+        mark("memory rebuilt");
+        const packageFiles = await files;
+        checkFileList(packageFiles, snapshot.header.files);
+        installFiles(FS, sitePackages, packageFiles);
         mark("files installed");
       } catch (err) {
         containerError = err;
       }
     },
-  }).catch((err) => {
-    throw containerError ?? err;
-  });
+  })
+    .catch((err) => {
+      throw containerError ?? err;
+    })
+    .finally(() => capture.release());
   if (containerError) throw containerError;
-  const info = await checked;
+  const { info } = await checked;
   phase("check engine");
   pyodide.runPython(AFTER_RESTORE_PY);
   const bound = bindApi(pyodide);

@@ -121,6 +121,43 @@ def test_wrong_known_answer_falls_back_visibly(page, context, server, site_dir):
     _fallback_checks(page, server)
 
 
+def _serve_rewritten_container(context, site_dir, change):
+    """Serve a container whose header ``change`` edits, with a sidecar that
+    matches it (size and sha256), so only the header's content is wrong."""
+    import hashlib
+
+    info = json.loads((site_dir / "packages" / "noblegap-snapshot.json").read_text())
+    data = gzip.decompress((site_dir / "packages" / info["file"]).read_bytes())
+    length = int.from_bytes(data[8:12], "little")
+    header = json.loads(data[12:12 + length])
+    change(header)
+    new_header = json.dumps(header, separators=(",", ":")).encode()
+    assert len(new_header) <= length
+    new_header = new_header.ljust(length)            # same length: offsets stay valid
+    body = gzip.compress(data[:12] + new_header + data[12 + length:], mtime=0)
+    info.update(size=len(body), sha256=hashlib.sha256(body).hexdigest())
+    context.route(SNAPSHOT_INFO, lambda route: route.fulfill(
+        status=200, body=json.dumps(info), content_type="application/json"))
+    context.route(SNAPSHOT_FILE, lambda route: route.fulfill(
+        status=200, body=body, content_type="application/gzip"))
+
+
+def test_snapshot_made_against_other_data_segments_falls_back_visibly(page, context, server, site_dir):
+    def change(header):
+        header["base"]["sha256"] = "0" * 64
+    _serve_rewritten_container(context, site_dir, change)
+    _fallback_checks(page, server)
+    assert "data segments differ" in page.inner_text("#engine-status")
+
+
+def test_snapshot_listing_other_package_files_falls_back_visibly(page, context, server, site_dir):
+    def change(header):
+        header["files"][0][1] += 1
+    _serve_rewritten_container(context, site_dir, change)
+    _fallback_checks(page, server)
+    assert "files differ" in page.inner_text("#engine-status")
+
+
 def test_missing_snapshot_falls_back_visibly(page, context, server):
     context.route(SNAPSHOT_INFO, lambda route: route.fulfill(status=404, body="not found"))
     _fallback_checks(page, server)

@@ -1,0 +1,154 @@
+"""static/restore.mjs under Node, against independent Python readers: its zip
+reader (the package files come from the wheels), its data segment reader
+(the base of the snapshot) and its rebuild of Pyodide's memory from a
+container written by build.py."""
+
+from __future__ import annotations
+
+import hashlib
+import json
+import os
+import shutil
+import subprocess
+import zipfile
+from pathlib import Path
+
+import pytest
+
+from _site import build_module
+
+build = build_module()
+ROOT = Path(__file__).resolve().parent.parent
+RESTORE = ROOT / "site_src" / "static" / "restore.mjs"
+
+
+def node(script: str, tmp_path: Path) -> dict:
+    if shutil.which("node") is None:
+        if os.environ.get("CI"):
+            pytest.fail("node is required in CI")
+        pytest.skip("node is not installed")
+    path = tmp_path / "probe.mjs"
+    path.write_text(f'import * as R from {json.dumps(RESTORE.as_uri())};\n' + script)
+    proc = subprocess.run(["node", str(path)], capture_output=True, text=True, timeout=120)
+    assert proc.returncode == 0, proc.stderr
+    return json.loads(proc.stdout.strip().splitlines()[-1])
+
+
+UNZIP = """
+import { readFileSync } from "node:fs";
+const out = {};
+for (const name of ["good.zip", "bad.zip", "evil.zip"]) {
+  try {
+    const files = await R.unzip(new Uint8Array(readFileSync(new URL(name, import.meta.url))), name);
+    out[name] = files.map(([n, d]) => [n, Buffer.from(d).toString("base64")]);
+  } catch (err) {
+    out[name] = "error: " + err.message;
+  }
+}
+console.log(JSON.stringify(out));
+"""
+
+
+def test_unzip_matches_pythons_zipfile(tmp_path):
+    members = {
+        "pkg/__init__.pyc": bytes(range(256)) * 40,
+        "pkg/data/table.csv": b"a,b\n1,2\n" * 500,
+        "pkg/empty.txt": b"",
+        "pkg-1.0.dist-info/RECORD": "ünïcode name ok\n".encode(),
+    }
+    with zipfile.ZipFile(tmp_path / "good.zip", "w") as zf:
+        zf.writestr("pkg/", b"")                                   # a directory entry: skipped
+        for i, (name, data) in enumerate(members.items()):
+            zf.writestr(name, data, compress_type=zipfile.ZIP_STORED if i % 2 else zipfile.ZIP_DEFLATED)
+    (tmp_path / "bad.zip").write_bytes(b"PK not really a zip" * 10)
+    with zipfile.ZipFile(tmp_path / "evil.zip", "w") as zf:
+        zf.writestr("../outside.py", b"x")
+    got = node(UNZIP, tmp_path)
+    import base64
+
+    assert {n: base64.b64decode(d) for n, d in got["good.zip"]} == members
+    assert got["bad.zip"].startswith("error: bad.zip: not a zip archive")
+    assert "unsafe member name" in got["evil.zip"]
+
+
+SEGMENTS = """
+import { readFileSync } from "node:fs";
+const wasm = new Uint8Array(readFileSync(process.env.WASM));
+const image = R.dataSegmentsImage(wasm);
+const cut = R.dataSegmentsImage(wasm, 4096);
+console.log(JSON.stringify({size: image.length, sha: await R.sha256Hex(image),
+  cutSha: await R.sha256Hex(cut), cutSize: cut.length}));
+"""
+
+
+def test_data_segments_image_of_the_pinned_runtime(tmp_path):
+    from test_build import _wasm_data_segments
+
+    wasm_path = ROOT / "site" / "pyodide" / "pyodide.asm.wasm"
+    if not wasm_path.exists():
+        from _site import ensure_site
+
+        ensure_site()
+    wasm = wasm_path.read_bytes()
+    segments = _wasm_data_segments(wasm)
+    end = max(offset + len(chunk) for offset, chunk in segments)
+    image = bytearray(end)
+    for offset, chunk in segments:
+        image[offset:offset + len(chunk)] = chunk
+    os.environ["WASM"] = str(wasm_path)
+    try:
+        got = node(SEGMENTS, tmp_path)
+    finally:
+        del os.environ["WASM"]
+    assert got["size"] == end
+    assert got["sha"] == hashlib.sha256(image).hexdigest()
+    assert (got["cutSize"], got["cutSha"]) == (4096, hashlib.sha256(image[:4096]).hexdigest())
+
+
+APPLY = """
+import { readFileSync } from "node:fs";
+const data = new Uint8Array(readFileSync(new URL("container.bin", import.meta.url)));
+const base = new Uint8Array(readFileSync(new URL("base.bin", import.meta.url)));
+const size = Number(process.env.MEMORY_SIZE);
+const parsed = R.parseSnapshot(data, size);
+const target = new Uint8Array(size);
+R.applySnapshot(parsed, target, base.subarray(0, parsed.header.base.size));
+const errors = {};
+for (const [name, bytes, memorySize] of [
+  ["wrong size", data, size + 4],
+  ["bad magic", Uint8Array.from([...data.subarray(0, 7), 0x21, ...data.subarray(8)]), size],
+  ["truncated", data.subarray(0, data.length - 100), size],
+]) {
+  try { R.parseSnapshot(bytes, memorySize); errors[name] = null; } catch (err) { errors[name] = err.message; }
+}
+console.log(JSON.stringify({sha: await R.sha256Hex(target), errors}));
+"""
+
+
+def test_apply_snapshot_rebuilds_the_memory_build_py_packed(tmp_path):
+    import random
+
+    rng = random.Random(7)
+    page = build.SNAPSHOT_PAGE
+    base = bytes(rng.choice([0, 0, 0, rng.randrange(256)]) for _ in range(5 * page + 123))
+    heap = bytearray(base) + bytearray(11 * page + 50)
+    for _ in range(400):                       # scattered edits, some over the base
+        at = rng.randrange(len(heap) - 64)
+        heap[at:at + rng.randrange(1, 64)] = bytes(rng.randrange(256) for _ in range(64))[:rng.randrange(1, 64)]
+    heap = bytes(heap[:len(base) + 11 * page + 50])
+    prefix = b"snp\0" + (128).to_bytes(4, "little") + bytes(range(120))
+    memory = prefix + heap
+    memory += bytes(-len(memory) % 4)
+    data = build._snapshot_container({"x.py": b"1"}, memory, base, {"version": "0"})
+    (tmp_path / "container.bin").write_bytes(data)
+    padded = base + bytes(-len(base) % page)
+    (tmp_path / "base.bin").write_bytes(padded)
+    os.environ["MEMORY_SIZE"] = str(len(memory))
+    try:
+        got = node(APPLY, tmp_path)
+    finally:
+        del os.environ["MEMORY_SIZE"]
+    assert got["sha"] == hashlib.sha256(memory).hexdigest()
+    assert "sidecar says" in got["errors"]["wrong size"]
+    assert "bad magic" in got["errors"]["bad magic"]
+    assert "header says" in got["errors"]["truncated"]
