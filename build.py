@@ -470,6 +470,72 @@ def write_lock(pyodide_dir: Path, wheels: list[Path], out_dir: Path) -> dict:
     return lock
 
 
+# ---------------------------------------------------------------- step 5a: standard library
+
+# The site's standard library: the members of the pinned python_stdlib.zip
+# that the site can ever import (tools/stdlib_closure.py), in their own zip.
+STDLIB_FILE = "noblegap-stdlib.zip"
+STDLIB_TOOLS = (TOOLS / "stdlib_closure.mjs", TOOLS / "stdlib_closure.py")
+PARITY_CASES = ROOT / "tests" / "parity" / "cases.json"
+
+
+def stdlib_members(pyodide_dir: Path, packages: Path, pin: dict) -> list[str]:
+    """The import closure of Pyodide's start plus the engine, as zip member names (cached)."""
+    lock_sha = sha256_file(packages / LOCK_NAME)
+    key = hashlib.sha256(
+        b"".join(p.read_bytes() for p in STDLIB_TOOLS) + PARITY_CASES.read_bytes()
+        + f"|{pin['version']}|{lock_sha}".encode()
+    ).hexdigest()[:32]
+    cached = CACHE / "stdlib" / f"{key}.json"
+    if not cached.exists():
+        if shutil.which("node") is None:
+            raise BuildError("node is needed to find the standard library modules the site imports")
+        log("finding the standard library modules the engine can import")
+        proc = subprocess.run(["node", str(TOOLS / "stdlib_closure.mjs"), str(pyodide_dir),
+                               str(packages / LOCK_NAME), str(PARITY_CASES)], capture_output=True, text=True)
+        if proc.returncode != 0:
+            raise BuildError(f"tools/stdlib_closure.mjs failed:\n{proc.stderr[-4000:]}")
+        report = json.loads(proc.stdout.strip().splitlines()[-1])
+        cached.parent.mkdir(parents=True, exist_ok=True)
+        cached.write_text(json.dumps(report, indent=1) + "\n")
+    return json.loads(cached.read_text())["members"]
+
+
+def write_stdlib(pyodide_dir: Path, site: Path, pin: dict) -> dict:
+    """site/pyodide/noblegap-stdlib.zip: the closure's members, byte for byte, in the original order.
+
+    Deterministic (the original timestamps, deflate level 9). Every package
+    a member lives in keeps its ``__init__.py``.
+    """
+    import zipfile
+
+    members = set(stdlib_members(pyodide_dir, site / PACKAGES_DIR, pin))
+    source = pyodide_dir / "python_stdlib.zip"
+    out = site / "pyodide" / STDLIB_FILE
+    with zipfile.ZipFile(source) as zin:
+        names = set(zin.namelist())
+        for name in sorted(members):
+            parts = name.split("/")[:-1]
+            for i in range(1, len(parts) + 1):
+                init = "/".join(parts[:i]) + "/__init__.py"
+                if init in names:
+                    members.add(init)
+        unknown = members - names
+        if unknown:
+            raise BuildError(f"python_stdlib.zip has no {sorted(unknown)[:3]}")
+        with zipfile.ZipFile(out, "w") as zout:
+            for info in zin.infolist():
+                if info.filename not in members:
+                    continue
+                copy = zipfile.ZipInfo(info.filename, date_time=info.date_time)
+                copy.external_attr = info.external_attr
+                copy.compress_type = zipfile.ZIP_DEFLATED
+                zout.writestr(copy, zin.read(info), compresslevel=9)
+    full, kept = source.stat().st_size, out.stat().st_size
+    log(f"standard library: {len(members)} of {len(names)} members, {kept / 1e6:.2f} of {full / 1e6:.2f} MB")
+    return {"members": len(members), "size": kept}
+
+
 # ---------------------------------------------------------------- step 5b: memory snapshot
 
 
@@ -594,7 +660,8 @@ def make_snapshot(site: Path, pin: dict, api) -> dict | None:
         b"".join((p).read_bytes() for p in SNAPSHOT_TOOLS)
     ).hexdigest()
     key = hashlib.sha256(
-        f"{lock_sha}|{pin['version']}|{tool_hash}|{SNAPSHOT_FORMAT}|{SNAPSHOT_PAGE}".encode()
+        f"{lock_sha}|{pin['version']}|{tool_hash}|{SNAPSHOT_FORMAT}|{SNAPSHOT_PAGE}|"
+        f"{sha256_file(site / 'pyodide' / STDLIB_FILE)}".encode()
     ).hexdigest()[:32]
     cdir = CACHE / "snapshot" / key
     memory_path, report_path, gz_path = cdir / "memory.bin", cdir / "report.json", cdir / SNAPSHOT_FILE
@@ -841,6 +908,7 @@ def build(site: Path = SITE, offline: bool = False, compile_pyc: bool = True, sn
         for name in pin["site_files"]:
             shutil.copyfile(pyodide_dir / name, tmp / "pyodide" / name)
         write_lock(pyodide_dir, wheels, tmp / PACKAGES_DIR)
+        write_stdlib(pyodide_dir, tmp, pin)
         copy_static(tmp)
         if snapshot:
             make_snapshot(tmp, pin, api)

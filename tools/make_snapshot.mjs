@@ -31,7 +31,7 @@ const job = JSON.parse(await readFile(process.argv[2], "utf8"));
 const site = resolve(job.site_dir);
 const t0 = performance.now();
 const { loadPyodide, version } = await import(pathToFileURL(join(site, "pyodide", "pyodide.mjs")).href);
-const { installFiles, WARM_PY } = await import(pathToFileURL(join(site, "static", "engine.mjs")).href);
+const { installFiles, STDLIB_FILE, WARM_PY } = await import(pathToFileURL(join(site, "static", "engine.mjs")).href);
 const { captureRuntimeWasm, dataSegmentsImage } = await import(pathToFileURL(join(site, "static", "restore.mjs")).href);
 const files = await Promise.all(
   job.files.map(async (path) => [path, new Uint8Array(await readFile(join(job.files_dir, path)))]),
@@ -42,6 +42,7 @@ const capture = captureRuntimeWasm();
 const py = await loadPyodide({
   indexURL: join(site, "pyodide") + "/",
   lockFileURL: join(site, "packages", "noblegap-lock.json"),
+  stdLibURL: join(site, "pyodide", STDLIB_FILE),
   stdout: (msg) => console.error(msg),
   stderr: (msg) => console.error(msg),
   _makeSnapshot: true,

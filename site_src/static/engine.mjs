@@ -41,6 +41,9 @@ import {
 export { SNAPSHOT_FORMAT, sha256Hex };
 
 export const LOCK_FILE = "noblegap-lock.json";
+// The site's standard library (build.py STDLIB_FILE): the members of
+// Pyodide's python_stdlib.zip the engine can import, next to pyodide.mjs.
+export const STDLIB_FILE = "noblegap-stdlib.zip";
 export const SNAPSHOT_INFO = "noblegap-snapshot.json";
 // The file the build's sidecar names (build.py SNAPSHOT_FILE).
 export const SNAPSHOT_FILE = "noblegap-snapshot.gzip";
@@ -281,7 +284,8 @@ async function snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn) {
 
 // The loadPyodide options both boots share: our files, our lock, our output.
 function runtimeOptions({ indexURL, lockFileURL, stdout, stderr }) {
-  return { indexURL, lockFileURL, stdout, stderr, checkAPIVersion: true };
+  const stdLibURL = `${indexURL.endsWith("/") ? indexURL : indexURL + "/"}${STDLIB_FILE}`;
+  return { indexURL, lockFileURL, stdLibURL, stdout, stderr, checkAPIVersion: true };
 }
 
 async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark }) {

@@ -1,0 +1,47 @@
+// Which members of Pyodide's python_stdlib.zip the site can ever import.
+//
+// usage: node tools/stdlib_closure.mjs PYODIDE_DIR LOCK_FILE CASES.json
+//
+// Boots the pinned Pyodide from PYODIDE_DIR (the npm package's files, full
+// standard library), loads the engine's packages from LOCK_FILE the normal
+// way (every wheel checked against the lock's sha256), then runs
+// tools/stdlib_closure.py, which imports and exercises the engine and
+// follows every import statement to a fixed point. Prints its JSON.
+import { createHash } from "node:crypto";
+import { readFile } from "node:fs/promises";
+import { dirname, join, resolve } from "node:path";
+import { fileURLToPath, pathToFileURL } from "node:url";
+
+if (process.argv.length !== 5) {
+  console.error("usage: node tools/stdlib_closure.mjs PYODIDE_DIR LOCK_FILE CASES.json");
+  process.exit(2);
+}
+const [pyodideDir, lockFile, casesFile] = process.argv.slice(2).map((p) => resolve(p));
+const lock = JSON.parse(await readFile(lockFile, "utf8"));
+for (const pkg of Object.values(lock.packages)) {
+  const data = await readFile(join(dirname(lockFile), pkg.file_name));
+  const digest = createHash("sha256").update(data).digest("hex");
+  if (digest !== pkg.sha256) {
+    console.error(`${pkg.file_name}: sha256 ${digest} does not match the lock file (${pkg.sha256})`);
+    process.exit(1);
+  }
+}
+const { loadPyodide } = await import(pathToFileURL(join(pyodideDir, "pyodide.mjs")).href);
+const py = await loadPyodide({
+  indexURL: pyodideDir + "/",
+  lockFileURL: lockFile,
+  stdout: (msg) => console.error(msg),
+  stderr: (msg) => console.error(msg),
+});
+const failures = [];
+await py.loadPackage(["noblegap"], { messageCallback: () => {}, errorCallback: (m) => failures.push(m) });
+if (failures.length) {
+  console.error(failures.join("\n"));
+  process.exit(1);
+}
+py.globals.set("CASES_JSON", await readFile(casesFile, "utf8"));
+const here = dirname(fileURLToPath(import.meta.url));
+let out = "";
+py.setStdout({ batched: (line) => (out += line + "\n") });
+py.runPython(await readFile(join(here, "stdlib_closure.py"), "utf8"));
+process.stdout.write(out.trim().split("\n").pop() + "\n");
