@@ -572,16 +572,18 @@ def _xor(a: bytes, b: bytes) -> bytes:
     return (int.from_bytes(a, "little") ^ int.from_bytes(b, "little")).to_bytes(len(a), "little")
 
 
-def _snapshot_container(files: dict[str, bytes], memory: bytes, base: bytes, pin: dict) -> bytes:
-    """MAGIC, u32 header length, header JSON, Pyodide's header, padding, heap pages.
+def _snapshot_container(files: dict[str, bytes], memory: bytes, base: bytes, pin: dict,
+                        imported: list[str] = ()) -> bytes:
+    """MAGIC, u32 header length, header JSON, Pyodide's header, files, padding, heap pages.
 
     ``memory`` is Pyodide's memory snapshot (its own header, then the whole
     heap); ``base`` the runtime's heap when it was instantiated, before
     Python ran (static/restore.mjs describes the format). Each heap page is
     stored XOR the same page of the base (zeros past the base), and pages
     that come out all zero are left out (``memory_runs`` lists the [first
-    page, count] runs kept). The package files are listed, not stored: the
-    browser unpacks them from the lock's wheels.
+    page, count] runs kept). ``files`` are stored except ``imported``, the
+    compiled modules imported before the memory was saved, which Python never
+    reads again.
     """
     page = SNAPSHOT_PAGE
     prefix_size = int.from_bytes(memory[4:8], "little")
@@ -610,21 +612,28 @@ def _snapshot_container(files: dict[str, bytes], memory: bytes, base: bytes, pin
         else:
             runs.append([i, 1])
     prefix = memory[:prefix_size]
+    left_out = set(imported)
+    if not left_out <= set(files):
+        raise BuildError(f"imported files not among the package files: {sorted(left_out - set(files))[:3]}")
+    stored = {name: data for name, data in files.items() if name not in left_out}
+    total = sum(len(d) for d in stored.values())
     offset = 0
     while True:
         header = json.dumps({
             "format": SNAPSHOT_FORMAT, "pyodide": pin["version"],
-            "files": [[name, len(data)] for name, data in files.items()],
+            "files": [[name, len(data)] for name, data in stored.items()],
+            "imported": sorted(left_out),
             "prefix_size": prefix_size, "memory_offset": offset, "memory_size": len(memory),
             "page_size": page, "base": {"size": len(base), "sha256": hashlib.sha256(base).hexdigest()},
             "memory_runs": runs,
         }, separators=(",", ":")).encode()
-        start = 12 + len(header) + prefix_size
+        start = 12 + len(header) + prefix_size + total
         aligned = (start + 15) // 16 * 16
         if aligned == offset:
             break
         offset = aligned
-    parts = [SNAPSHOT_MAGIC, len(header).to_bytes(4, "little"), header, prefix, b"\0" * (offset - start), *kept]
+    parts = [SNAPSHOT_MAGIC, len(header).to_bytes(4, "little"), header, prefix, *stored.values(),
+             b"\0" * (offset - start), *kept]
     return b"".join(parts)
 
 
@@ -690,7 +699,8 @@ def make_snapshot(site: Path, pin: dict, api) -> dict | None:
                 shutil.rmtree(cdir)
             cdir.mkdir(parents=True)
             memory = (Path(tmp) / "memory.bin").read_bytes()
-            container = _snapshot_container(files, memory, (Path(tmp) / "base.bin").read_bytes(), pin)
+            container = _snapshot_container(files, memory, (Path(tmp) / "base.bin").read_bytes(), pin,
+                                            report["imported_files"])
             gz_path.write_bytes(gzip.compress(container, compresslevel=9, mtime=0))
             shutil.copyfile(Path(tmp) / "memory.bin", memory_path)
             report["raw_size"] = len(container)
@@ -720,7 +730,8 @@ def make_snapshot(site: Path, pin: dict, api) -> dict | None:
     (packages / SNAPSHOT_INFO).write_text(json.dumps(info, indent=1) + "\n")
     verify_snapshot(site, info)
     log(f"snapshot: {info['raw_size'] / 1e6:.1f} MB raw, {info['size'] / 1e6:.1f} MB gzip "
-        f"({len(files)} package files, memory {info['memory_size'] / 1e6:.1f} MB)")
+        f"({len(files) - len(report['imported_files'])} of {len(files)} package files, "
+        f"memory {info['memory_size'] / 1e6:.1f} MB)")
     return info
 
 

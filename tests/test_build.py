@@ -239,17 +239,28 @@ def _wasm_data_segments(wasm: bytes):
     return segments
 
 
-def test_snapshot_lists_exactly_the_locked_wheels_files(site, snapshot_info, lock):
+def test_snapshot_holds_the_package_files_python_may_still_read(site, snapshot_info, lock):
     data, header, offset = _container(site, snapshot_info)
     assert len(data) == snapshot_info["raw_size"]
-    expected = []
+    wheel_files = {}
     for entry in lock["packages"].values():
         with zipfile.ZipFile(site / build.PACKAGES_DIR / entry["file_name"]) as zf:
-            expected += [[info.filename, info.file_size] for info in zf.infolist() if not info.is_dir()]
-    # listed, sorted as the browser sorts what it unpacks, and not stored:
-    # the browser unpacks them from the wheels it fetches anyway
-    assert header["files"] == sorted(expected)
-    assert header["memory_offset"] == (offset + header["prefix_size"] + 15) // 16 * 16
+            wheel_files.update({i.filename: zf.read(i) for i in zf.infolist() if not i.is_dir()})
+    # left out: only compiled modules that were imported before the save
+    imported = set(header["imported"])
+    assert imported and imported <= set(wheel_files)
+    assert all(name.endswith(".pyc") for name in imported)
+    assert {"noblegap/api.pyc", "pint/__init__.pyc"} <= imported
+    # everything else is stored, byte for byte: the data tables among it
+    offset += header["prefix_size"]
+    stored = {}
+    for name, size in header["files"]:
+        stored[name] = data[offset:offset + size]
+        offset += size
+    assert stored == {name: body for name, body in wheel_files.items() if name not in imported}
+    assert "noblegap/_data/alloys.csv" in stored
+    assert [name for name, _ in header["files"]] == sorted(stored)
+    assert header["memory_offset"] == (offset + 15) // 16 * 16
     pages = sum(count for _, count in header["memory_runs"])
     assert len(data) == header["memory_offset"] + pages * header["page_size"]
     assert pages * header["page_size"] < header["memory_size"] / 2
@@ -299,13 +310,21 @@ def test_snapshot_container_round_trip():
             + b"\x02" * 5 + bytes(page - 5)           # page 3: past the base
             + b"\x03" * 7)                            # a partial last page
     memory = prefix + heap
-    data = build._snapshot_container({"a/b.py": b"xyz"}, memory, base, pin)
+    files = {"a/b.py": b"xyz", "a/c.pyc": b"CODE-OF-C"}
+    data = build._snapshot_container(files, memory, base, pin, imported=["a/c.pyc"])
     header, rebuilt = _rebuild(data, base[:2 * page])
-    assert header["files"] == [["a/b.py", 3]] and b"xyz" not in data
+    assert header["files"] == [["a/b.py", 3]] and header["imported"] == ["a/c.pyc"]
+    assert data[12 + int.from_bytes(data[8:12], "little") + 16:][:3] == b"xyz" and b"CODE-OF-C" not in data
     assert header["base"]["size"] == 2 * page
     assert header["base"]["sha256"] == hashlib.sha256(base[:2 * page]).hexdigest()
     assert header["memory_runs"] == [[1, 1], [3, 2]]
     assert rebuilt == memory
+
+
+def test_snapshot_container_refuses_unknown_imported_files():
+    memory = b"snp\0" + (16).to_bytes(4, "little") + bytes(8) + bytes(64)
+    with pytest.raises(build.BuildError, match="not among the package files"):
+        build._snapshot_container({"a.py": b""}, memory, b"", {"version": "0"}, imported=["b.pyc"])
 
 
 def test_snapshot_container_refuses_an_unknown_pyodide_header():

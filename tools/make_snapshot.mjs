@@ -48,10 +48,10 @@ const py = await loadPyodide({
   _makeSnapshot: true,
   fsInit: async (FS, info) => {
     sitePackages = info.sitePackages;
-    const wasm = capture.bytes();
     capture.release();
+    const wasm = await capture.bytes;
     if (!wasm) throw new Error("the runtime's WebAssembly was not seen");
-    base = dataSegmentsImage(await wasm);
+    base = dataSegmentsImage(wasm);
   },
 });
 capture.release();
@@ -63,6 +63,19 @@ const booted = performance.now() - t0;
 installFiles(py.FS, sitePackages, files);
 py.runPython("import importlib; importlib.invalidate_caches()");
 py.runPython(WARM_PY);
+// The package files whose modules are imported now: restored with the
+// memory, never read again (build.py leaves them out of the container).
+const imported = JSON.parse(
+  py.runPython(`
+import json, sys
+_prefix = ${JSON.stringify(sitePackages + "/")}
+_out = sorted({m.__spec__.origin[len(_prefix):] for m in list(sys.modules.values())
+               if getattr(m, "__spec__", None) is not None and isinstance(m.__spec__.origin, str)
+               and m.__spec__.origin.startswith(_prefix)})
+json.dumps(_out)
+`),
+);
+py.runPython("import gc; gc.collect()");
 const zeroFilled = zeroFreeMemory(py._module);
 const warmed = performance.now() - t0;
 const python = py.runPython("import sys; '.'.join(map(str, sys.version_info[:3]))");
@@ -75,6 +88,7 @@ process.stdout.write(
     pyodide_build_id: py._api.config.BUILD_ID,
     memory_size: memory.length,
     site_packages: sitePackages,
+    imported_files: imported,
     zero_filled: zeroFilled,
     timings: { boot: booted, warm: warmed - booted, total: performance.now() - t0 },
   }) + "\n",

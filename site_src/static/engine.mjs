@@ -13,12 +13,12 @@
 //   the engine's packages, imports and warms noblegap and saves the WebAssembly
 //   memory (packages/noblegap-snapshot.json names the file and how to check
 //   it; static/restore.mjs describes the container). Here the memory is
-//   restored instead of starting Python: the runtime is instantiated while the
-//   snapshot downloads, its data segments are the base the snapshot is a
-//   delta against, the package files are unpacked from the lock's wheels back into
-//   site-packages (lazy imports and data tables read them), Python's random
-//   state is re-seeded, and a known case must give the answer the build
-//   recorded.
+//   restored instead of starting Python: the runtime is compiled while
+//   pyodide.asm.mjs loads and instantiated while the snapshot downloads, its
+//   data segments are the base the snapshot is a delta against, the package
+//   files the engine may still read go back into site-packages, Python's
+//   random state is re-seeded, and a known case must give the answer the
+//   build recorded.
 // * normal: loadPyodide, loadPackage from the lock file (every wheel checked
 //   with Subresource Integrity), import noblegap.api and warm it.
 //
@@ -31,9 +31,7 @@ import {
   SNAPSHOT_FORMAT,
   applySnapshot,
   captureRuntimeWasm,
-  checkFileList,
   dataSegmentsImage,
-  lockedFiles,
   parseSnapshot,
   sha256Hex,
 } from "./restore.mjs";
@@ -117,25 +115,17 @@ export function installFiles(FS, sitePackages, files) {
 }
 
 /**
- * Unpack a gzip response while it downloads, into a buffer of the size the
- * sidecar gives; the compressed bytes must have the sidecar's sha256.
+ * Unpack a gzip response: {bytes, sha256}, the sha256 being that of the
+ * compressed bytes as they came.
  */
-async function gunzipChecked(response, info) {
-  const [forHash, forInflate] = response.body.tee();
-  const hashed = new Response(forHash).arrayBuffer().then((buf) => sha256Hex(new Uint8Array(buf)));
-  const out = new Uint8Array(info.raw_size);
-  let offset = 0;
-  const reader = forInflate.pipeThrough(new DecompressionStream("gzip")).getReader();
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    if (offset + value.length > out.length) throw new Error("snapshot unpacks to more bytes than its sidecar says");
-    out.set(value, offset);
-    offset += value.length;
-  }
-  if (offset !== out.length) throw new Error(`snapshot unpacks to ${offset} bytes, its sidecar says ${out.length}`);
-  if ((await hashed) !== info.sha256) throw new Error("snapshot file does not match its sha256");
-  return out;
+async function gunzipResponse(response) {
+  if (!response.ok) throw new Error(`snapshot file: HTTP ${response.status}`);
+  // whole first (drained off this thread), then hashed and unpacked at once
+  const packed = new Uint8Array(await response.arrayBuffer());
+  const hashed = sha256Hex(packed);
+  const stream = new Blob([packed]).stream().pipeThrough(new DecompressionStream("gzip"));
+  const bytes = new Uint8Array(await new Response(stream).arrayBuffer());
+  return { bytes, sha256: await hashed };
 }
 
 /** Does result match the known case the build recorded (to 1e-12 relative)? */
@@ -298,76 +288,89 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
   // must still have the sidecar's sha256.
   const snapshotBase = new URL(snapshotInfoURL, "file:///");
   const guessURL = new URL(SNAPSHOT_FILE, snapshotBase).href;
-  const early = fetchFn(guessURL);
-  const dropEarly = () => early.then((r) => r.body && r.body.cancel()).catch(() => {});
+  const stop = new AbortController();
+  const unpack = (url) => fetchFn(url, { signal: stop.signal }).then(gunzipResponse);
+  const early = unpack(guessURL);
   early.catch(() => {});
   // No usable sidecar (the normal start follows): stop the download.
-  checked.catch(dropEarly);
+  checked.catch(() => stop.abort());
   // Pyodide needs only the memory's size to compile and instantiate its
   // WebAssembly, and reads the memory itself only after fsInit below has
   // returned: so it gets a zero-filled buffer of the sidecar's size at once,
-  // compiles while the snapshot downloads and unpacks, and fsInit fills the
-  // buffer. Should anything fail, the buffer stays all zeros, Pyodide
-  // rejects it (bad magic number) and the normal start follows with the
-  // real error as the reason.
+  // compiles while the snapshot downloads and unpacks, and the buffer is
+  // filled before fsInit returns. Should anything fail, the buffer's magic
+  // number stays zero, Pyodide rejects it and the normal start follows with
+  // the real error as the reason.
   const memory = checked.then(({ info }) => new Uint8Array(info.memory_size));
   const container = (async () => {
     const { info } = await checked;
     mark("snapshot info checked");
     const url = new URL(info.file, snapshotBase).href;
-    // Not fetch's integrity option: it would hold the body until the last
-    // byte; the sha256 is checked on the same bytes while they unpack.
-    let response;
-    if (url === guessURL) {
-      response = await early;
-    } else {
-      dropEarly();
-      response = await fetchFn(url);
-    }
-    if (!response.ok) throw new Error(`snapshot file: HTTP ${response.status}`);
-    mark("snapshot response");
-    const bytes = await gunzipChecked(response, info);
+    const { bytes, sha256 } = await (url === guessURL ? early : unpack(url));
     mark("snapshot unpacked");
+    if (bytes.length !== info.raw_size) {
+      throw new Error(`snapshot unpacks to ${bytes.length} bytes, its sidecar says ${info.raw_size}`);
+    }
+    if (sha256 !== info.sha256) throw new Error("snapshot file does not match its sha256");
     return parseSnapshot(bytes, info.memory_size);
   })();
-  // The package files, from the same wheels the normal start would load.
-  const files = checked.then(({ lock }) => lockedFiles(lock, lockFileURL, fetchFn));
   // loadPyodide awaits the memory only after it has loaded its own script:
   // keep an early rejection from surfacing as unhandled meanwhile (it still
   // rejects loadPyodide, and so starts the normal way).
-  for (const promise of [checked, container, memory, files]) promise.catch(() => {});
-  // The runtime's binary, for the data segments the snapshot is a delta against.
-  const capture = captureRuntimeWasm();
+  for (const promise of [checked, container, memory]) promise.catch(() => {});
+  // The runtime's binary: compiled as soon as it arrives, and its data
+  // segments are the base the snapshot is a delta against.
+  const wasmURL =
+    typeof location === "undefined" ? null : new URL("pyodide.asm.wasm", new URL(indexURL, location)).href;
+  const capture = captureRuntimeWasm(wasmURL);
+  // The base, as soon as the runtime's bytes are here (long before the
+  // runtime is instantiated), and the memory, rebuilt as soon as the
+  // container is here too (Pyodide reads it only after fsInit).
+  const base = capture.bytes.then(async (wasm) => {
+    if (!wasm) throw new Error("the runtime's WebAssembly was not seen");
+    const image = dataSegmentsImage(wasm);
+    return { image, sha256: await sha256Hex(image) };
+  });
+  const rebuilt = (async () => {
+    const [snapshot, target, { image, sha256 }] = await Promise.all([container, memory, base]);
+    const { size } = snapshot.header.base;
+    // the build cuts the image at a page boundary: the rest is zeros
+    let baseImage = image;
+    if (size !== image.length) {
+      baseImage = new Uint8Array(size);
+      baseImage.set(image.subarray(0, size));
+    }
+    const same = size === image.length ? sha256 : await sha256Hex(baseImage);
+    if (same !== snapshot.header.base.sha256) {
+      throw new Error("the runtime's data segments differ from the ones the snapshot was made against");
+    }
+    phase("restore snapshot");
+    applySnapshot(snapshot, target, baseImage);
+    mark("memory rebuilt");
+    return snapshot;
+  })();
+  base.catch(() => {});
+  rebuilt.catch(() => {});
   let containerError = null;
   const pyodide = await loadPyodide({
     ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
     _loadSnapshot: memory,
     // Runs once the WebAssembly is instantiated and before Python resumes
-    // from the memory: rebuild the memory from the runtime's data segments
-    // and the snapshot's pages, and put the package files back where the build had them.
-    // Never throws (Pyodide does not await this hook's errors): a failure
-    // is kept and reported instead of Pyodide's complaint about the empty
-    // memory.
+    // from the memory: the memory must be rebuilt, and the snapshot's
+    // package files go back where the build had them. Never throws (Pyodide does not await
+    // this hook's errors): a failure is kept and reported instead of
+    // Pyodide's complaint about the memory, whose magic number is wiped so
+    // that Pyodide never resumes from it.
     fsInit: async (FS, { sitePackages }) => {
       mark("runtime instantiated");
+      capture.release();
       try {
-        const wasm = capture.bytes();
-        capture.release();
-        if (!wasm) throw new Error("the runtime's WebAssembly was not seen");
-        const snapshot = await container;
-        const base = dataSegmentsImage(await wasm, snapshot.header.base.size);
-        if ((await sha256Hex(base)) !== snapshot.header.base.sha256) {
-          throw new Error("the runtime's data segments differ from the ones the snapshot was made against");
-        }
-        phase("restore snapshot");
-        applySnapshot(snapshot, await memory, base);
-        mark("memory rebuilt");
-        const packageFiles = await files;
-        checkFileList(packageFiles, snapshot.header.files);
-        installFiles(FS, sitePackages, packageFiles);
+        const { files } = await rebuilt;
+        installFiles(FS, sitePackages, files);
         mark("files installed");
       } catch (err) {
         containerError = err;
+        (await memory.catch(() => new Uint8Array(8))).fill(0, 0, 8);
       }
     },
   })

@@ -1,6 +1,5 @@
 // The pieces of the snapshot start that do not need Pyodide: the snapshot
-// container, the runtime's initial memory it is a delta against, and the
-// package files, unpacked from the lock file's wheels.
+// container and the runtime's data segments it is a delta against.
 //
 // Used by static/engine.mjs (browser worker and Node parity runner) and by
 // tools/make_snapshot.mjs (the build), so both read and write the same way.
@@ -9,6 +8,7 @@
 //
 //   "NGSNAP02", u32 LE header length, header JSON,
 //   the first prefix_size bytes of Pyodide's memory snapshot (its own header),
+//   the package files of header.files, back to back,
 //   zero padding to a multiple of 16,
 //   the stored pages of the WebAssembly heap.
 //
@@ -24,10 +24,11 @@
 // live memory: the browser's runtime writes a few words before Python
 // starts that Node's does not.)
 //
-// The package files are not in the container: the worker unpacks them from
-// the same wheels the normal start loads (each checked against the lock's
-// sha256), and they must be exactly the files the build installed
-// (header.files, [path, size]).
+// Package files: the container holds those the restored engine may still
+// read (data tables, modules not imported yet, metadata), header.files
+// [path, size]; the compiled modules imported before the save are left out
+// (header.imported lists them): their code is in the memory and Python never
+// reads their files again.
 
 export const SNAPSHOT_FORMAT = 2;
 export const SNAPSHOT_MAGIC = "NGSNAP02";
@@ -44,7 +45,7 @@ export async function sha256Hex(data) {
 const isInt = (n) => Number.isSafeInteger(n) && n >= 0;
 
 /**
- * Check a decompressed container and split it into {header, prefix, pages}.
+ * Check a decompressed container and split it into {header, prefix, files, pages}.
  * memorySize is the size the (already checked) sidecar gives; nothing is
  * written anywhere: applySnapshot() does that once the base is at hand.
  */
@@ -81,19 +82,24 @@ export function parseSnapshot(bytes, memorySize) {
     end = first + count;
     stored += count;
   }
+  const prefixEnd = 12 + headerLength + prefixSize;
+  let offset = prefixEnd;
+  const files = [];
   for (const entry of header.files) {
     const [path, fileSize] = entry;
     if (typeof path !== "string" || path.startsWith("/") || path.split("/").includes("..") || !isInt(fileSize)) {
       throw new Error(`snapshot lists a bad file ${JSON.stringify(path)}`);
     }
+    files.push([path, bytes.subarray(offset, offset + fileSize)]);
+    offset += fileSize;
   }
-  const prefixEnd = 12 + headerLength + prefixSize;
-  if (prefixEnd > at || at % 16 || at + stored * pageSize !== bytes.length) {
+  if (offset > at || at % 16 || at + stored * pageSize !== bytes.length) {
     throw new Error(`snapshot is ${bytes.length} bytes, its header says ${at + stored * pageSize}`);
   }
   return {
     header,
     prefix: bytes.subarray(12 + headerLength, prefixEnd),
+    files,
     pages: bytes.subarray(at),
   };
 }
@@ -129,41 +135,76 @@ export function applySnapshot({ header, prefix, pages }, target, base) {
 }
 
 /**
- * Watch WebAssembly instantiation until release(): bytes() is a promise of
- * the binary of the instance that exports Py_Version, i.e. Python's runtime
- * (Pyodide instantiates small probe modules too), or null before it is
- * instantiated. The streamed response is cloned, so the bytes are read
- * while the browser compiles them.
+ * Watch how Pyodide loads its runtime binary (wasmURL), until release().
+ *
+ * bytes is a promise of that binary. In a browser Pyodide fetches it at
+ * once but compiles it only after it has loaded and run pyodide.asm.mjs
+ * (1.25 MB of JavaScript); here the compile starts as soon as the bytes
+ * are in, in the background, and Pyodide's instantiateStreaming call is
+ * answered with the module already compiled. Under Node Pyodide reads the file and calls
+ * WebAssembly.instantiate with the bytes: the bytes of the instance that
+ * exports Py_Version (Pyodide instantiates small probe modules too) are
+ * the runtime's.
  */
-export function captureRuntimeWasm() {
+export function captureRuntimeWasm(wasmURL = null) {
   const W = globalThis.WebAssembly;
-  const original = { instantiate: W.instantiate, instantiateStreaming: W.instantiateStreaming };
-  let runtimeBytes = null;
-  const keep = (bytes) => (result) => {
-    const instance = result instanceof W.Instance ? result : result && result.instance;
-    const exports = (instance && instance.exports) || {};
-    if (runtimeBytes === null && "Py_Version" in exports) runtimeBytes = bytes;
-    return result;
+  const original = {
+    fetch: globalThis.fetch,
+    instantiate: W.instantiate,
+    instantiateStreaming: W.instantiateStreaming,
   };
-  W.instantiate = function (source, ...rest) {
-    const bytes =
-      source instanceof ArrayBuffer || ArrayBuffer.isView(source)
-        ? Promise.resolve(new Uint8Array(source.buffer ?? source, source.byteOffset ?? 0, source.byteLength))
-        : Promise.resolve(null);
-    return original.instantiate.call(this, source, ...rest).then(keep(bytes));
+  let resolveBytes;
+  const bytes = new Promise((resolve) => (resolveBytes = resolve));
+  let seen = null; // the response promise handed to Pyodide, and its compile
+  const inBrowser = typeof location !== "undefined" && wasmURL !== null && original.instantiateStreaming;
+  const isRuntime = (input) => {
+    try {
+      return new URL(String(input instanceof Request ? input.url : input), location).href === wasmURL;
+    } catch {
+      return false;
+    }
   };
-  if (original.instantiateStreaming) {
-    W.instantiateStreaming = function (source, ...rest) {
-      return Promise.resolve(source).then((response) => {
-        const bytes = response.clone().arrayBuffer().then((b) => new Uint8Array(b));
-        bytes.catch(() => {});
-        return original.instantiateStreaming.call(this, response, ...rest).then(keep(bytes));
+  if (inBrowser) {
+    globalThis.fetch = function (input, init) {
+      const response = original.fetch.call(this, input, init);
+      if (seen !== null || !isRuntime(input)) return response;
+      // Read whole (the browser drains the body off this thread) and
+      // compiled in the background; no tee, whose two branches this
+      // thread would have to pump while it is busy running pyodide.asm.mjs.
+      const binary = response.then(async (r) => {
+        if (!r.ok) throw new Error(`the runtime: HTTP ${r.status}`);
+        return new Uint8Array(await r.arrayBuffer());
+      });
+      const compiled = binary.then((b) => W.compile(b));
+      binary.then(resolveBytes, () => resolveBytes(null));
+      compiled.catch(() => {});
+      seen = { response, compiled };
+      return response;
+    };
+    W.instantiateStreaming = function (source, imports) {
+      if (seen === null || source !== seen.response) return original.instantiateStreaming.call(this, source, imports);
+      return seen.compiled.then((module) => W.instantiate(module, imports).then((instance) => ({ instance, module })));
+    };
+  } else {
+    W.instantiate = function (source, ...rest) {
+      const binary =
+        source instanceof ArrayBuffer || ArrayBuffer.isView(source)
+          ? new Uint8Array(source.buffer ?? source, source.byteOffset ?? 0, source.byteLength)
+          : null;
+      return original.instantiate.call(this, source, ...rest).then((result) => {
+        const instance = result instanceof W.Instance ? result : result && result.instance;
+        if (binary && instance && "Py_Version" in instance.exports) resolveBytes(binary);
+        return result;
       });
     };
   }
   return {
-    bytes: () => runtimeBytes,
+    bytes,
+    // Once the runtime is instantiated: a binary not seen by then never
+    // will be, and bytes gives null.
     release() {
+      resolveBytes(null);
+      globalThis.fetch = original.fetch;
       W.instantiate = original.instantiate;
       if (original.instantiateStreaming) W.instantiateStreaming = original.instantiateStreaming;
     },
@@ -223,113 +264,18 @@ function dataSegments(wasm) {
 /**
  * The heap a WebAssembly binary starts with: its active data segments
  * written into zeros, size bytes long (by default up to the end of the last
- * segment; what lies past size is dropped). Only constant offsets
- * (i32.const) are understood.
+ * segment, rounded up to a 4 KiB page, the container's page size; what lies
+ * past size is dropped). Only constant offsets (i32.const) are understood.
  */
 export function dataSegmentsImage(wasm, size = null) {
   const segments = dataSegments(wasm);
-  if (size === null) size = segments.reduce((end, [offset, data]) => Math.max(end, offset + data.length), 0);
+  if (size === null) {
+    const end = segments.reduce((max, [offset, data]) => Math.max(max, offset + data.length), 0);
+    size = Math.ceil(end / 4096) * 4096;
+  }
   const image = new Uint8Array(size);
   for (const [offset, data] of segments) {
     if (offset < size) image.set(data.subarray(0, size - offset), offset);
   }
   return image;
-}
-
-/** "sha256-<base64>" from a hex sha256, for fetch's integrity option. */
-export function integrityOf(hexDigest) {
-  const bytes = hexDigest.match(/../g).map((h) => parseInt(h, 16));
-  return `sha256-${btoa(String.fromCharCode(...bytes))}`;
-}
-
-async function inflateRaw(data) {
-  const stream = new Blob([data]).stream().pipeThrough(new DecompressionStream("deflate-raw"));
-  return new Uint8Array(await new Response(stream).arrayBuffer());
-}
-
-/** Every file of a zip archive (a wheel): [[name, bytes]], directories left out. */
-export async function unzip(bytes, label = "archive") {
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  let eocd = -1;
-  for (let i = bytes.length - 22; i >= Math.max(0, bytes.length - 22 - 65535); i--) {
-    if (view.getUint32(i, true) === 0x06054b50) {
-      eocd = i;
-      break;
-    }
-  }
-  if (eocd < 0) throw new Error(`${label}: not a zip archive`);
-  const count = view.getUint16(eocd + 10, true);
-  let at = view.getUint32(eocd + 16, true);
-  const decoder = new TextDecoder();
-  const jobs = [];
-  for (let n = 0; n < count; n++) {
-    if (at + 46 > bytes.length || view.getUint32(at, true) !== 0x02014b50) {
-      throw new Error(`${label}: bad central directory`);
-    }
-    const method = view.getUint16(at + 10, true);
-    const compressed = view.getUint32(at + 20, true);
-    const size = view.getUint32(at + 24, true);
-    const nameLength = view.getUint16(at + 28, true);
-    const extraLength = view.getUint16(at + 30, true);
-    const commentLength = view.getUint16(at + 32, true);
-    const local = view.getUint32(at + 42, true);
-    const name = decoder.decode(bytes.subarray(at + 46, at + 46 + nameLength));
-    at += 46 + nameLength + extraLength + commentLength;
-    if (name.endsWith("/")) continue;
-    if (name.startsWith("/") || name.includes("\\") || name.split("/").includes("..")) {
-      throw new Error(`${label}: unsafe member name ${JSON.stringify(name)}`);
-    }
-    if (view.getUint32(local, true) !== 0x04034b50) throw new Error(`${label}: bad local header for ${name}`);
-    const start = local + 30 + view.getUint16(local + 26, true) + view.getUint16(local + 28, true);
-    const data = bytes.subarray(start, start + compressed);
-    if (method !== 0 && method !== 8) throw new Error(`${label}: ${name} uses compression method ${method}`);
-    jobs.push(
-      (method === 0 ? Promise.resolve(data) : inflateRaw(data)).then((out) => {
-        if (out.length !== size) throw new Error(`${label}: ${name} unpacks to ${out.length} bytes, not ${size}`);
-        return [name, out];
-      }),
-    );
-  }
-  return Promise.all(jobs);
-}
-
-/**
- * The files of every wheel in the lock file (site-packages layout), each
- * wheel fetched with its sha256 as Subresource Integrity. Returns
- * [[path, bytes]] sorted by path, as the build lists them.
- */
-export async function lockedFiles(lock, lockFileURL, fetchFn) {
-  const packages = Object.values(lock.packages ?? {});
-  // (a plain path under Node)
-  const lockBase = new URL(lockFileURL, "file:///");
-  const unpacked = await Promise.all(
-    packages.map(async (entry) => {
-      const url = new URL(entry.file_name, lockBase).href;
-      const response = await fetchFn(url, { integrity: integrityOf(entry.sha256) });
-      if (!response.ok) throw new Error(`${entry.file_name}: HTTP ${response.status}`);
-      return unzip(new Uint8Array(await response.arrayBuffer()), entry.file_name);
-    }),
-  );
-  const files = new Map();
-  for (const list of unpacked) {
-    for (const [name, data] of list) {
-      const other = files.get(name);
-      if (other && (other.length !== data.length || other.some((b, i) => b !== data[i]))) {
-        throw new Error(`${name} differs between two wheels`);
-      }
-      files.set(name, data);
-    }
-  }
-  return [...files].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
-}
-
-/** The files must be exactly the [path, size] list the build installed. */
-export function checkFileList(files, expected) {
-  const got = files.map(([path, data]) => `${path}:${data.length}`);
-  const want = expected.map(([path, size]) => `${path}:${size}`);
-  if (got.length !== want.length || got.some((x, i) => x !== want[i])) {
-    const missing = want.filter((x) => !got.includes(x));
-    const extra = got.filter((x) => !want.includes(x));
-    throw new Error(`the wheels' files differ from the snapshot's (missing ${missing.slice(0, 3)}; extra ${extra.slice(0, 3)})`);
-  }
 }
