@@ -73,8 +73,8 @@ SNAPSHOT_INFO = "noblegap-snapshot.json"
 # Not ".gz": some static hosts would send Content-Encoding: gzip for it, and
 # the browser would then hand the worker bytes it cannot check or unpack.
 SNAPSHOT_FILE = "noblegap-snapshot.gzip"
-SNAPSHOT_FORMAT = 2
-SNAPSHOT_MAGIC = b"NGSNAP02"
+SNAPSHOT_FORMAT = 3
+SNAPSHOT_MAGIC = b"NGSNAP03"
 # What the snapshot is made with: a change to any of them makes a new one.
 SNAPSHOT_TOOLS = (TOOLS / "make_snapshot.mjs", STATIC / "engine.mjs", STATIC / "restore.mjs")
 # The memory snapshot uses loadPyodide options that Pyodide marks private
@@ -572,9 +572,9 @@ def _xor(a: bytes, b: bytes) -> bytes:
     return (int.from_bytes(a, "little") ^ int.from_bytes(b, "little")).to_bytes(len(a), "little")
 
 
-def _snapshot_container(files: dict[str, bytes], memory: bytes, base: bytes, pin: dict,
+def _snapshot_container(files: dict[str, bytes], memory: bytes, base: bytes, gaps: bytes, pin: dict,
                         imported: list[str] = ()) -> bytes:
-    """MAGIC, u32 header length, header JSON, Pyodide's header, files, padding, heap pages.
+    """MAGIC, u32 header length, header JSON, Pyodide's header, gap list, files, padding, heap pages.
 
     ``memory`` is Pyodide's memory snapshot (its own header, then the whole
     heap); ``base`` the runtime's heap when it was instantiated, before
@@ -591,11 +591,9 @@ def _snapshot_container(files: dict[str, bytes], memory: bytes, base: bytes, pin
         raise BuildError(f"Pyodide's snapshot header is {prefix_size} bytes: not a snapshot this build knows")
     heap = memory[prefix_size:]
     zero = bytes(page)
-    # the base up to its last non-zero page
-    base_pages = (len(base) + page - 1) // page
-    while base_pages and base[(base_pages - 1) * page:base_pages * page].strip(b"\0") == b"":
-        base_pages -= 1
-    base = base[:base_pages * page].ljust(base_pages * page, b"\0")
+    if len(base) % page:
+        raise BuildError(f"the base image is {len(base)} bytes, not a whole number of {page}-byte pages")
+    base_pages = len(base) // page
     if len(base) > len(heap):
         raise BuildError("the runtime's initial heap is larger than the snapshot's")
     runs: list[list[int]] = []
@@ -624,15 +622,16 @@ def _snapshot_container(files: dict[str, bytes], memory: bytes, base: bytes, pin
             "files": [[name, len(data)] for name, data in stored.items()],
             "imported": sorted(left_out),
             "prefix_size": prefix_size, "memory_offset": offset, "memory_size": len(memory),
-            "page_size": page, "base": {"size": len(base), "sha256": hashlib.sha256(base).hexdigest()},
+            "page_size": page,
+            "base": {"size": len(base), "sha256": hashlib.sha256(base).hexdigest(), "gaps_size": len(gaps)},
             "memory_runs": runs,
         }, separators=(",", ":")).encode()
-        start = 12 + len(header) + prefix_size + total
+        start = 12 + len(header) + prefix_size + len(gaps) + total
         aligned = (start + 15) // 16 * 16
         if aligned == offset:
             break
         offset = aligned
-    parts = [SNAPSHOT_MAGIC, len(header).to_bytes(4, "little"), header, prefix, *stored.values(),
+    parts = [SNAPSHOT_MAGIC, len(header).to_bytes(4, "little"), header, prefix, gaps, *stored.values(),
              b"\0" * (offset - start), *kept]
     return b"".join(parts)
 
@@ -681,7 +680,8 @@ def make_snapshot(site: Path, pin: dict, api) -> dict | None:
                 (fdir / name).parent.mkdir(parents=True, exist_ok=True)
                 (fdir / name).write_bytes(data)
             job = {"site_dir": str(site), "files_dir": str(fdir), "files": list(files),
-                   "memory_out": str(Path(tmp) / "memory.bin"), "base_out": str(Path(tmp) / "base.bin")}
+                   "memory_out": str(Path(tmp) / "memory.bin"), "base_out": str(Path(tmp) / "base.bin"),
+                   "gaps_out": str(Path(tmp) / "gaps.bin")}
             (Path(tmp) / "job.json").write_text(json.dumps(job))
             log(f"making the engine's memory snapshot inside Pyodide {pin['version']}")
             proc = subprocess.run(["node", str(TOOLS / "make_snapshot.mjs"), str(Path(tmp) / "job.json")],
@@ -699,8 +699,8 @@ def make_snapshot(site: Path, pin: dict, api) -> dict | None:
                 shutil.rmtree(cdir)
             cdir.mkdir(parents=True)
             memory = (Path(tmp) / "memory.bin").read_bytes()
-            container = _snapshot_container(files, memory, (Path(tmp) / "base.bin").read_bytes(), pin,
-                                            report["imported_files"])
+            container = _snapshot_container(files, memory, (Path(tmp) / "base.bin").read_bytes(),
+                                            (Path(tmp) / "gaps.bin").read_bytes(), pin, report["imported_files"])
             gz_path.write_bytes(gzip.compress(container, compresslevel=9, mtime=0))
             shutil.copyfile(Path(tmp) / "memory.bin", memory_path)
             report["raw_size"] = len(container)

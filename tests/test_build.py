@@ -252,7 +252,7 @@ def test_snapshot_holds_the_package_files_python_may_still_read(site, snapshot_i
     assert all(name.endswith(".pyc") for name in imported)
     assert {"noblegap/api.pyc", "pint/__init__.pyc"} <= imported
     # everything else is stored, byte for byte: the data tables among it
-    offset += header["prefix_size"]
+    offset += header["prefix_size"] + header["base"]["gaps_size"]
     stored = {}
     for name, size in header["files"]:
         stored[name] = data[offset:offset + size]
@@ -279,6 +279,36 @@ def test_snapshot_base_is_the_runtimes_data_segments(site, snapshot_info):
     assert size % header["page_size"] == 0 and 0 < end <= size < end + header["page_size"]
     image = bytes(image).ljust(size, b"\0")
     assert hashlib.sha256(image).hexdigest() == header["base"]["sha256"]
+    # the gap list: exactly the bytes of [0, size) no segment covers
+    covered = bytearray(size)
+    for offset, chunk in segments:
+        covered[offset:offset + len(chunk)] = b"\1" * len(chunk)
+    data, header, at = _container(site, snapshot_info)
+    at += header["prefix_size"]
+    gaps = bytearray(size)
+    for start, stop in _decode_runs(data[at:at + header["base"]["gaps_size"]]):
+        gaps[start:stop] = b"\1" * (stop - start)
+    assert all(c != g for c, g in zip(covered, gaps))
+
+
+def _decode_runs(blob):
+    """The gap list: LEB128 pairs (bytes since the previous gap's end, gap length)."""
+    runs, at, end = [], 0, 0
+    values = []
+    while at < len(blob):
+        value = shift = 0
+        while True:
+            byte = blob[at]
+            at += 1
+            value |= (byte & 0x7F) << shift
+            shift += 7
+            if not byte & 0x80:
+                break
+        values.append(value)
+    for skip, length in zip(values[::2], values[1::2]):
+        runs.append((end + skip, end + skip + length))
+        end += skip + length
+    return runs
 
 
 def _rebuild(data, base_image):
@@ -303,7 +333,7 @@ def test_snapshot_container_round_trip():
     pin = {"version": "0"}
     page = build.SNAPSHOT_PAGE
     prefix = b"snp\0" + (16).to_bytes(4, "little") + b"12345678"
-    base = b"\x05" * 10 + bytes(page - 10) + b"\x07" * page + bytes(page)   # trailing zero page dropped
+    base = b"\x05" * 10 + bytes(page - 10) + b"\x07" * page + bytes(page)
     heap = (b"\x05" * 10 + bytes(page - 10)           # page 0: same as the base -> left out
             + b"\x07" * 100 + b"\x09" * (page - 100)  # page 1: differs from the base
             + bytes(page)                             # page 2: zeros -> left out
@@ -311,10 +341,12 @@ def test_snapshot_container_round_trip():
             + b"\x03" * 7)                            # a partial last page
     memory = prefix + heap
     files = {"a/b.py": b"xyz", "a/c.pyc": b"CODE-OF-C"}
-    data = build._snapshot_container(files, memory, base, pin, imported=["a/c.pyc"])
+    data = build._snapshot_container(files, memory, base[:2 * page], b"\x05\x07", pin, imported=["a/c.pyc"])
     header, rebuilt = _rebuild(data, base[:2 * page])
     assert header["files"] == [["a/b.py", 3]] and header["imported"] == ["a/c.pyc"]
-    assert data[12 + int.from_bytes(data[8:12], "little") + 16:][:3] == b"xyz" and b"CODE-OF-C" not in data
+    at = 12 + int.from_bytes(data[8:12], "little") + 16
+    assert data[at:at + 5] == b"\x05\x07xyz" and b"CODE-OF-C" not in data
+    assert header["base"]["gaps_size"] == 2
     assert header["base"]["size"] == 2 * page
     assert header["base"]["sha256"] == hashlib.sha256(base[:2 * page]).hexdigest()
     assert header["memory_runs"] == [[1, 1], [3, 2]]
@@ -324,9 +356,9 @@ def test_snapshot_container_round_trip():
 def test_snapshot_container_refuses_unknown_imported_files():
     memory = b"snp\0" + (16).to_bytes(4, "little") + bytes(8) + bytes(64)
     with pytest.raises(build.BuildError, match="not among the package files"):
-        build._snapshot_container({"a.py": b""}, memory, b"", {"version": "0"}, imported=["b.pyc"])
+        build._snapshot_container({"a.py": b""}, memory, b"", b"", {"version": "0"}, imported=["b.pyc"])
 
 
 def test_snapshot_container_refuses_an_unknown_pyodide_header():
     with pytest.raises(build.BuildError, match="not a snapshot"):
-        build._snapshot_container({}, b"snp\0" + (7).to_bytes(4, "little") + bytes(64), b"", {"version": "0"})
+        build._snapshot_container({}, b"snp\0" + (7).to_bytes(4, "little") + bytes(64), b"", b"", {"version": "0"})

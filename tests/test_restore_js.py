@@ -70,11 +70,15 @@ def test_data_segments_image_of_the_pinned_runtime(tmp_path):
 APPLY = """
 import { readFileSync } from "node:fs";
 const data = new Uint8Array(readFileSync(new URL("container.bin", import.meta.url)));
-const base = new Uint8Array(readFileSync(new URL("base.bin", import.meta.url)));
+// a runtime's memory: the base with junk in its gaps, and more memory after it
+const live = new Uint8Array(readFileSync(new URL("live.bin", import.meta.url)));
 const size = Number(process.env.MEMORY_SIZE);
 const parsed = R.parseSnapshot(data, size);
 const target = new Uint8Array(size);
-R.applySnapshot(parsed, target, base.subarray(0, parsed.header.base.size));
+R.applyPages(parsed, target);
+const base = R.baseFromMemory(live.buffer, parsed);
+const baseOk = (await R.sha256Hex(base)) === parsed.header.base.sha256;
+R.applyBase(parsed, target, base);
 const files = parsed.files.map(([name, data]) => [name, Buffer.from(data).toString("latin1")]);
 // the same container with one file name changed (same length)
 function relabel(bytes, from, to) {
@@ -90,7 +94,10 @@ for (const [name, bytes, memorySize] of [
 ]) {
   try { R.parseSnapshot(bytes, memorySize); errors[name] = null; } catch (err) { errors[name] = err.message; }
 }
-console.log(JSON.stringify({sha: await R.sha256Hex(target), files, errors}));
+const runs = [[0, 3], [10, 4096], [5000, 5001]];
+const roundTrip = R.decodeRuns(R.encodeRuns(runs), 6000);
+console.log(JSON.stringify({sha: await R.sha256Hex(target), baseOk, files, errors, roundTrip,
+  gaps: parsed.gaps}));
 """
 
 
@@ -99,7 +106,17 @@ def test_apply_snapshot_rebuilds_the_memory_build_py_packed(tmp_path):
 
     rng = random.Random(7)
     page = build.SNAPSHOT_PAGE
-    base = bytes(rng.choice([0, 0, 0, rng.randrange(256)]) for _ in range(5 * page + 123))
+    # a base of 5 pages: "segments" with gaps between them
+    base = bytearray(5 * page)
+    gaps, at = [], 0
+    while at < len(base) - 200:
+        seg = min(rng.randrange(20, 900), len(base) - 100 - at)
+        base[at:at + seg] = bytes(rng.randrange(1, 256) for _ in range(seg))
+        gap = rng.randrange(1, 40)
+        gaps.append((at + seg, min(len(base), at + seg + gap)))
+        at += seg + gap
+    gaps.append((at, len(base)))
+    base = bytes(base)
     heap = bytearray(base) + bytearray(11 * page + 50)
     for _ in range(400):                       # scattered edits, some over the base
         at = rng.randrange(len(heap) - 64)
@@ -108,19 +125,34 @@ def test_apply_snapshot_rebuilds_the_memory_build_py_packed(tmp_path):
     prefix = b"snp\0" + (128).to_bytes(4, "little") + bytes(range(120))
     memory = prefix + heap
     memory += bytes(-len(memory) % 4)
+    encoded = bytearray()
+    end = 0
+    for start, stop in gaps:
+        for value in (start - end, stop - start):
+            while True:
+                byte, value = value & 0x7F, value >> 7
+                encoded.append(byte | (0x80 if value else 0))
+                if not value:
+                    break
+        end = stop
     files = {"ab/x.py": b"print(1)\n", "ab/y.pyc": b"imported", "ab/z.csv": b"a,b\n1,2\n"}
-    data = build._snapshot_container(files, memory, base, {"version": "0"}, imported=["ab/y.pyc"])
+    data = build._snapshot_container(files, memory, base, bytes(encoded), {"version": "0"}, imported=["ab/y.pyc"])
     (tmp_path / "container.bin").write_bytes(data)
-    padded = base + bytes(-len(base) % page)
-    (tmp_path / "base.bin").write_bytes(padded)
+    live = bytearray(base) + bytes(rng.randrange(256) for _ in range(3 * page))
+    for start, stop in gaps:                    # what a runtime may write before Python starts
+        live[start:stop] = bytes(rng.randrange(256) for _ in range(stop - start))
+    (tmp_path / "live.bin").write_bytes(bytes(live))
     os.environ["MEMORY_SIZE"] = str(len(memory))
     try:
         got = node(APPLY, tmp_path)
     finally:
         del os.environ["MEMORY_SIZE"]
+    assert got["baseOk"]
+    assert [tuple(g) for g in got["gaps"]] == gaps
     assert got["sha"] == hashlib.sha256(memory).hexdigest()
     assert got["files"] == [["ab/x.py", "print(1)\n"], ["ab/z.csv", "a,b\n1,2\n"]]
-    assert "bad file" in got["errors"]["bad path"]
     assert "sidecar says" in got["errors"]["wrong size"]
     assert "bad magic" in got["errors"]["bad magic"]
     assert "header says" in got["errors"]["truncated"]
+    assert "bad file" in got["errors"]["bad path"]
+    assert got["roundTrip"] == [[0, 3], [10, 4096], [5000, 5001]]

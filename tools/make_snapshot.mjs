@@ -3,7 +3,7 @@
 // usage: node tools/make_snapshot.mjs JOB.json
 //
 // JOB.json: {"site_dir": "site.tmp", "files_dir": "...", "files": ["pint/__init__.pyc", ...],
-//            "memory_out": ".../memory.bin", "base_out": ".../base.bin"}
+//            "memory_out": ".../memory.bin", "base_out": ".../base.bin", "gaps_out": ".../gaps.bin"}
 //
 // Boots the site's own Pyodide (site_dir/pyodide) with the private option
 // _makeSnapshot, writes the package files (the lock's wheels, unpacked and
@@ -11,8 +11,9 @@
 // browser uses when it restores the snapshot, imports and warms noblegap (WARM_PY in
 // static/engine.mjs), and saves pyodide.makeMemorySnapshot() to memory_out.
 // base_out gets the heap the runtime's data segments make (dataSegmentsImage
-// in static/restore.mjs, as the browser computes it): build.py stores the
-// snapshot as a delta against it.
+// in static/restore.mjs) and gaps_out the ranges between them (the gap list
+// the browser zeroes in its freshly instantiated memory to get the same
+// base): build.py stores the snapshot as a delta against the base.
 // loadPackage is not used: it leaves JavaScript objects behind that a
 // memory snapshot cannot hold.
 //
@@ -32,12 +33,13 @@ const site = resolve(job.site_dir);
 const t0 = performance.now();
 const { loadPyodide, version } = await import(pathToFileURL(join(site, "pyodide", "pyodide.mjs")).href);
 const { installFiles, STDLIB_FILE, WARM_PY } = await import(pathToFileURL(join(site, "static", "engine.mjs")).href);
-const { captureRuntimeWasm, dataSegmentsImage } = await import(pathToFileURL(join(site, "static", "restore.mjs")).href);
+const { baseFromMemory, captureRuntimeWasm, dataSegmentsGaps, dataSegmentsImage, encodeRuns } = await import(pathToFileURL(join(site, "static", "restore.mjs")).href);
 const files = await Promise.all(
   job.files.map(async (path) => [path, new Uint8Array(await readFile(join(job.files_dir, path)))]),
 );
 let sitePackages = null;
 let base = null;
+let gaps = null;
 const capture = captureRuntimeWasm();
 const py = await loadPyodide({
   indexURL: join(site, "pyodide") + "/",
@@ -48,15 +50,21 @@ const py = await loadPyodide({
   _makeSnapshot: true,
   fsInit: async (FS, info) => {
     sitePackages = info.sitePackages;
+    const memory = capture.memory();
     capture.release();
     const wasm = await capture.bytes;
-    if (!wasm) throw new Error("the runtime's WebAssembly was not seen");
+    if (!wasm || !memory) throw new Error("the runtime's WebAssembly was not seen");
     base = dataSegmentsImage(wasm);
+    gaps = dataSegmentsGaps(wasm, base.length);
+    // what the browser will do: this runtime's memory, gaps zeroed
+    const live = baseFromMemory(memory.buffer, { header: { base: { size: base.length } }, gaps });
+    if (live.some((b, i) => b !== base[i])) throw new Error("the runtime's memory differs from its data segments");
   },
 });
 capture.release();
 if (!base) throw new Error("fsInit did not run");
 await writeFile(job.base_out, base);
+await writeFile(job.gaps_out, encodeRuns(gaps));
 const booted = performance.now() - t0;
 // After the boot, not in fsInit: files present while Pyodide starts are
 // registered as loaded packages, which leaves objects a snapshot cannot hold.

@@ -29,9 +29,10 @@
 import { loadPyodide, version as PYODIDE_VERSION } from "../pyodide/pyodide.mjs";
 import {
   SNAPSHOT_FORMAT,
-  applySnapshot,
+  applyBase,
+  applyPages,
+  baseFromMemory,
   captureRuntimeWasm,
-  dataSegmentsImage,
   parseSnapshot,
   sha256Hex,
 } from "./restore.mjs";
@@ -318,39 +319,19 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
   // keep an early rejection from surfacing as unhandled meanwhile (it still
   // rejects loadPyodide, and so starts the normal way).
   for (const promise of [checked, container, memory]) promise.catch(() => {});
-  // The runtime's binary: compiled as soon as it arrives, and its data
-  // segments are the base the snapshot is a delta against.
+  // The runtime's binary, compiled as soon as its response arrives; its
+  // memory, once instantiated, holds the base the snapshot is a delta against.
   const wasmURL =
     typeof location === "undefined" ? null : new URL("pyodide.asm.wasm", new URL(indexURL, location)).href;
   const capture = captureRuntimeWasm(wasmURL);
-  // The base, as soon as the runtime's bytes are here (long before the
-  // runtime is instantiated), and the memory, rebuilt as soon as the
-  // container is here too (Pyodide reads it only after fsInit).
-  const base = capture.bytes.then(async (wasm) => {
-    if (!wasm) throw new Error("the runtime's WebAssembly was not seen");
-    const image = dataSegmentsImage(wasm);
-    return { image, sha256: await sha256Hex(image) };
-  });
-  const rebuilt = (async () => {
-    const [snapshot, target, { image, sha256 }] = await Promise.all([container, memory, base]);
-    const { size } = snapshot.header.base;
-    // the build cuts the image at a page boundary: the rest is zeros
-    let baseImage = image;
-    if (size !== image.length) {
-      baseImage = new Uint8Array(size);
-      baseImage.set(image.subarray(0, size));
-    }
-    const same = size === image.length ? sha256 : await sha256Hex(baseImage);
-    if (same !== snapshot.header.base.sha256) {
-      throw new Error("the runtime's data segments differ from the ones the snapshot was made against");
-    }
-    phase("restore snapshot");
-    applySnapshot(snapshot, target, baseImage);
-    mark("memory rebuilt");
+  // What needs no runtime is written as soon as the container is here:
+  // Pyodide's header and the pages past the base.
+  const paged = Promise.all([container, memory]).then(([snapshot, target]) => {
+    applyPages(snapshot, target);
+    mark("pages copied");
     return snapshot;
-  })();
-  base.catch(() => {});
-  rebuilt.catch(() => {});
+  });
+  paged.catch(() => {});
   let containerError = null;
   const pyodide = await loadPyodide({
     ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
@@ -363,10 +344,19 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
     // that Pyodide never resumes from it.
     fsInit: async (FS, { sitePackages }) => {
       mark("runtime instantiated");
+      const runtimeMemory = capture.memory();
       capture.release();
       try {
-        const { files } = await rebuilt;
-        installFiles(FS, sitePackages, files);
+        if (!runtimeMemory) throw new Error("the runtime's memory was not seen");
+        const snapshot = await paged;
+        const base = baseFromMemory(runtimeMemory.buffer, snapshot);
+        if ((await sha256Hex(base)) !== snapshot.header.base.sha256) {
+          throw new Error("the runtime's data segments differ from the ones the snapshot was made against");
+        }
+        phase("restore snapshot");
+        applyBase(snapshot, await memory, base);
+        mark("memory rebuilt");
+        installFiles(FS, sitePackages, snapshot.files);
         mark("files installed");
       } catch (err) {
         containerError = err;

@@ -4,10 +4,11 @@
 // Used by static/engine.mjs (browser worker and Node parity runner) and by
 // tools/make_snapshot.mjs (the build), so both read and write the same way.
 //
-// Container (after gunzip), format 2:
+// Container (after gunzip), format 3:
 //
-//   "NGSNAP02", u32 LE header length, header JSON,
+//   "NGSNAP03", u32 LE header length, header JSON,
 //   the first prefix_size bytes of Pyodide's memory snapshot (its own header),
+//   the base's gap list (header.base.gaps_size bytes, see below),
 //   the package files of header.files, back to back,
 //   zero padding to a multiple of 16,
 //   the stored pages of the WebAssembly heap.
@@ -16,13 +17,15 @@
 // heap is still what the runtime starts with: the WebAssembly module's data
 // segments (~3 MB), which are in pyodide.asm.wasm and so downloaded anyway.
 // Each heap page is stored XOR the same page of that data segment image
-// ("base"), and pages that come out all zero are left out
-// (header.memory_runs lists the [first page, page count] runs kept). The
-// build records the base's length and sha256 (header.base); the restore
-// reads the data segments from the runtime binary it has just loaded
-// (dataSegmentsImage) and refuses them unless the sha256 matches. (Not the
-// live memory: the browser's runtime writes a few words before Python
-// starts that Node's does not.)
+// ("base": the segments written into zeros, header.base.size bytes), and
+// pages that come out all zero are left out (header.memory_runs lists the
+// [first page, page count] runs kept). The restore takes the base from the
+// runtime it has just instantiated: its memory holds the segments, and in
+// the gaps between them whatever the runtime has written before Python
+// starts (Chromium writes a word there that Node does not). So the gaps
+// are zeroed first (the gap list: LEB128 pairs, bytes from the end of the
+// previous gap to the start of this one, then the gap's length), and the
+// result must have header.base.sha256, else the snapshot is refused.
 //
 // Package files: the container holds those the restored engine may still
 // read (data tables, modules not imported yet, metadata), header.files
@@ -30,8 +33,8 @@
 // (header.imported lists them): their code is in the memory and Python never
 // reads their files again.
 
-export const SNAPSHOT_FORMAT = 2;
-export const SNAPSHOT_MAGIC = "NGSNAP02";
+export const SNAPSHOT_FORMAT = 3;
+export const SNAPSHOT_MAGIC = "NGSNAP03";
 
 function hex(buffer) {
   return [...new Uint8Array(buffer)].map((b) => b.toString(16).padStart(2, "0")).join("");
@@ -45,9 +48,9 @@ export async function sha256Hex(data) {
 const isInt = (n) => Number.isSafeInteger(n) && n >= 0;
 
 /**
- * Check a decompressed container and split it into {header, prefix, files, pages}.
- * memorySize is the size the (already checked) sidecar gives; nothing is
- * written anywhere: applySnapshot() does that once the base is at hand.
+ * Check a decompressed container and split it into {header, prefix, gaps,
+ * files, pages}. memorySize is the size the (already checked) sidecar
+ * gives; nothing is written anywhere (applyPages and applyBase do that).
  */
 export function parseSnapshot(bytes, memorySize) {
   const magic = new TextDecoder().decode(bytes.subarray(0, 8));
@@ -67,7 +70,7 @@ export function parseSnapshot(bytes, memorySize) {
     throw new Error("snapshot header has bad sizes");
   }
   if (size !== memorySize) throw new Error(`snapshot memory is ${size} bytes, its sidecar says ${memorySize}`);
-  if (!base || !isInt(base.size) || base.size % pageSize || typeof base.sha256 !== "string") {
+  if (!base || !isInt(base.size) || base.size % pageSize || typeof base.sha256 !== "string" || !isInt(base.gaps_size)) {
     throw new Error("snapshot header has no usable base");
   }
   const heapPages = Math.ceil((size - prefixSize) / pageSize);
@@ -83,7 +86,8 @@ export function parseSnapshot(bytes, memorySize) {
     stored += count;
   }
   const prefixEnd = 12 + headerLength + prefixSize;
-  let offset = prefixEnd;
+  const gapsEnd = prefixEnd + base.gaps_size;
+  let offset = gapsEnd;
   const files = [];
   for (const entry of header.files) {
     const [path, fileSize] = entry;
@@ -99,52 +103,113 @@ export function parseSnapshot(bytes, memorySize) {
   return {
     header,
     prefix: bytes.subarray(12 + headerLength, prefixEnd),
+    gaps: decodeRuns(bytes.subarray(prefixEnd, gapsEnd), base.size),
     files,
     pages: bytes.subarray(at),
   };
 }
 
+/** [[start, end]] byte ranges from a gap list (see the top), each within [0, size). */
+export function decodeRuns(bytes, size) {
+  const runs = [];
+  let at = 0;
+  let end = 0;
+  while (at < bytes.length) {
+    let skip;
+    let length;
+    [skip, at] = readLEB(bytes, at);
+    [length, at] = readLEB(bytes, at);
+    const start = end + skip;
+    end = start + length;
+    if (end > size) throw new Error("snapshot base gap list runs past the base");
+    runs.push([start, end]);
+  }
+  return runs;
+}
+
+/** The gap list of [[start, end]] ranges, sorted and apart. */
+export function encodeRuns(runs) {
+  const out = [];
+  const put = (n) => {
+    do {
+      let byte = n % 128;
+      n = Math.floor(n / 128);
+      if (n) byte |= 0x80;
+      out.push(byte);
+    } while (n);
+  };
+  let end = 0;
+  for (const [start, stop] of runs) {
+    put(start - end);
+    put(stop - start);
+    end = stop;
+  }
+  return Uint8Array.from(out);
+}
+
+/**
+ * The base from a freshly instantiated runtime's memory: its first
+ * header.base.size bytes, copied, with the gaps between the data segments
+ * zeroed. Not checked here: compare its sha256 with header.base.sha256.
+ */
+export function baseFromMemory(buffer, { header, gaps }) {
+  const { size } = header.base;
+  if (buffer.byteLength < size) throw new Error("the runtime's memory is smaller than the snapshot's base");
+  const base = new Uint8Array(buffer, 0, size).slice();
+  for (const [start, end] of gaps) base.fill(0, start, end);
+  return base;
+}
+
 /**
  * Rebuild Pyodide's memory snapshot in target (zero-filled, memory_size
- * long): its header, then the heap = base XOR the stored pages. base is the
- * first header.base.size bytes of a freshly instantiated runtime's heap.
+ * long), in two steps. applyPages: its header and the stored pages past the
+ * base, where the heap started as zeros (a plain copy; needs no runtime).
+ * applyBase: the base (see baseFromMemory), XOR the stored pages over it.
  */
-export function applySnapshot({ header, prefix, pages }, target, base) {
+export function applyPages({ header, prefix, pages }, target) {
+  const { prefix_size: prefixSize, page_size: pageSize } = header;
+  target.set(prefix, 0);
+  const baseEnd = prefixSize + header.base.size;
+  let from = 0;
+  for (const [first, count] of header.memory_runs) {
+    const start = prefixSize + first * pageSize;
+    const length = Math.min(count * pageSize, target.length - start);
+    const skip = Math.max(0, Math.min(length, baseEnd - start));
+    if (skip < length) target.set(pages.subarray(from + skip, from + length), start + skip);
+    from += count * pageSize;
+  }
+}
+
+export function applyBase({ header, pages }, target, base) {
   const { prefix_size: prefixSize, page_size: pageSize } = header;
   if (base.length !== header.base.size) throw new Error("snapshot base has the wrong size");
-  target.set(prefix, 0);
   target.set(base, prefixSize);
-  const heapEnd = target.length;
   const words = new Uint32Array(target.buffer, target.byteOffset, target.length >>> 2);
   const src = new Uint32Array(pages.buffer, pages.byteOffset, pages.length >>> 2);
   const baseEnd = prefixSize + base.length;
   let from = 0;
   for (const [first, count] of header.memory_runs) {
     const start = prefixSize + first * pageSize;
-    const length = Math.min(count * pageSize, heapEnd - start);
-    const xorEnd = Math.min(start + length, baseEnd);
-    // Over the base: XOR, word by word (every offset here is a multiple of 4).
+    if (start >= baseEnd) break;
+    const xorEnd = Math.min(start + count * pageSize, baseEnd, target.length);
+    // word by word: every offset here is a multiple of 4
     for (let t = start >>> 2, s = from >>> 2, e = xorEnd >>> 2; t < e; t++, s++) words[t] ^= src[s];
-    // Past the base the heap started as zeros: a plain copy.
-    if (start + length > xorEnd) {
-      const skip = Math.max(0, xorEnd - start);
-      target.set(pages.subarray(from + skip, from + length), start + skip);
-    }
     from += count * pageSize;
   }
 }
 
 /**
- * Watch how Pyodide loads its runtime binary (wasmURL), until release().
+ * Watch how Pyodide loads its runtime (wasmURL, the browser's), until
+ * release(). memory() is then the runtime's WebAssembly memory: that of the
+ * instance that exports Py_Version (Pyodide instantiates small probe
+ * modules too). bytes is a promise of the runtime's binary under Node (the
+ * build reads its data segments), null in a browser.
  *
- * bytes is a promise of that binary. In a browser Pyodide fetches it at
- * once but compiles it only after it has loaded and run pyodide.asm.mjs
- * (1.25 MB of JavaScript); here the compile starts as soon as the bytes
- * are in, in the background, and Pyodide's instantiateStreaming call is
- * answered with the module already compiled. Under Node Pyodide reads the file and calls
- * WebAssembly.instantiate with the bytes: the bytes of the instance that
- * exports Py_Version (Pyodide instantiates small probe modules too) are
- * the runtime's.
+ * In a browser Pyodide fetches the binary at once but compiles it only
+ * after it has loaded and run pyodide.asm.mjs (1.25 MB of JavaScript): here
+ * the streaming compile starts as soon as the response arrives, in the
+ * background, and Pyodide's instantiateStreaming call is answered with that
+ * module. Under Node Pyodide reads the file and instantiates the bytes.
  */
 export function captureRuntimeWasm(wasmURL = null) {
   const W = globalThis.WebAssembly;
@@ -153,38 +218,40 @@ export function captureRuntimeWasm(wasmURL = null) {
     instantiate: W.instantiate,
     instantiateStreaming: W.instantiateStreaming,
   };
+  let memory = null;
   let resolveBytes;
   const bytes = new Promise((resolve) => (resolveBytes = resolve));
+  const keep = (result) => {
+    const instance = result instanceof W.Instance ? result : result && result.instance;
+    const exports = (instance && instance.exports) || {};
+    if (memory === null && "Py_Version" in exports && exports.memory instanceof W.Memory) memory = exports.memory;
+    return result;
+  };
   let seen = null; // the response promise handed to Pyodide, and its compile
   const inBrowser = typeof location !== "undefined" && wasmURL !== null && original.instantiateStreaming;
-  const isRuntime = (input) => {
-    try {
-      return new URL(String(input instanceof Request ? input.url : input), location).href === wasmURL;
-    } catch {
-      return false;
-    }
-  };
   if (inBrowser) {
+    const isRuntime = (input) => {
+      try {
+        return new URL(String(input instanceof Request ? input.url : input), location).href === wasmURL;
+      } catch {
+        return false;
+      }
+    };
     globalThis.fetch = function (input, init) {
       const response = original.fetch.call(this, input, init);
       if (seen !== null || !isRuntime(input)) return response;
-      // Read whole (the browser drains the body off this thread) and
-      // compiled in the background; no tee, whose two branches this
-      // thread would have to pump while it is busy running pyodide.asm.mjs.
-      const binary = response.then(async (r) => {
-        if (!r.ok) throw new Error(`the runtime: HTTP ${r.status}`);
-        return new Uint8Array(await r.arrayBuffer());
-      });
-      const compiled = binary.then((b) => W.compile(b));
-      binary.then(resolveBytes, () => resolveBytes(null));
+      const compiled = W.compileStreaming(response);
       compiled.catch(() => {});
       seen = { response, compiled };
       return response;
     };
     W.instantiateStreaming = function (source, imports) {
-      if (seen === null || source !== seen.response) return original.instantiateStreaming.call(this, source, imports);
-      return seen.compiled.then((module) => W.instantiate(module, imports).then((instance) => ({ instance, module })));
+      if (seen === null || source !== seen.response) {
+        return original.instantiateStreaming.call(this, source, imports).then(keep);
+      }
+      return seen.compiled.then((module) => W.instantiate(module, imports).then((instance) => keep({ instance, module })));
     };
+    resolveBytes(null);
   } else {
     W.instantiate = function (source, ...rest) {
       const binary =
@@ -192,16 +259,15 @@ export function captureRuntimeWasm(wasmURL = null) {
           ? new Uint8Array(source.buffer ?? source, source.byteOffset ?? 0, source.byteLength)
           : null;
       return original.instantiate.call(this, source, ...rest).then((result) => {
-        const instance = result instanceof W.Instance ? result : result && result.instance;
-        if (binary && instance && "Py_Version" in instance.exports) resolveBytes(binary);
+        keep(result);
+        if (binary && memory !== null) resolveBytes(binary);
         return result;
       });
     };
   }
   return {
+    memory: () => memory,
     bytes,
-    // Once the runtime is instantiated: a binary not seen by then never
-    // will be, and bytes gives null.
     release() {
       resolveBytes(null);
       globalThis.fetch = original.fetch;
@@ -259,6 +325,22 @@ function dataSegments(wasm) {
     }
   }
   return segments;
+}
+
+/** The byte ranges of [0, size) that no active data segment covers: [[start, end]]. */
+export function dataSegmentsGaps(wasm, size) {
+  const covered = dataSegments(wasm)
+    .map(([offset, data]) => [offset, Math.min(size, offset + data.length)])
+    .filter(([start, end]) => start < end)
+    .sort((a, b) => a[0] - b[0]);
+  const gaps = [];
+  let at = 0;
+  for (const [start, end] of covered) {
+    if (start > at) gaps.push([at, start]);
+    at = Math.max(at, end);
+  }
+  if (at < size) gaps.push([at, size]);
+  return gaps;
 }
 
 /**
