@@ -362,3 +362,29 @@ def test_snapshot_container_refuses_unknown_imported_files():
 def test_snapshot_container_refuses_an_unknown_pyodide_header():
     with pytest.raises(build.BuildError, match="not a snapshot"):
         build._snapshot_container({}, b"snp\0" + (7).to_bytes(4, "little") + bytes(64), b"", b"", {"version": "0"})
+
+
+def test_site_stdlib_is_a_byte_identical_subset_of_pyodides(site):
+    pin = build.load_pyodide_pin()
+    official = build.fetch_pyodide(pin, offline=True) / "python_stdlib.zip"
+    with zipfile.ZipFile(official) as full, zipfile.ZipFile(site / "pyodide" / build.STDLIB_FILE) as ours:
+        names = ours.namelist()
+        assert set(names) < set(full.namelist())
+        assert names == [n for n in full.namelist() if n in set(names)]       # original order
+        for name in names:
+            assert ours.read(name) == full.read(name), name
+    kept = set(names)
+    # what the engine and Pyodide's start import, codecs looked up by name,
+    # and sysconfig's data module (imported by a computed name)
+    for needed in ["json/__init__.py", "json/decoder.py", "traceback.py", "linecache.py", "fractions.py",
+                   "encodings/utf_8.py", "encodings/latin_1.py", "importlib/metadata/__init__.py",
+                   "_pyodide/_base.py", "pyodide/ffi/__init__.py"]:
+        assert needed in kept, needed
+    assert any(n.startswith("_sysconfigdata_") for n in kept)
+    # every package keeps its __init__.py
+    for name in kept:
+        parts = name.split("/")[:-1]
+        for i in range(1, len(parts) + 1):
+            init = "/".join(parts[:i]) + "/__init__.py"
+            assert init in kept or init not in set(zipfile.ZipFile(official).namelist()), init
+    assert "python_stdlib.zip" not in {p.name for p in (site / "pyodide").iterdir()}
