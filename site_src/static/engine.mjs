@@ -300,8 +300,8 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
   // returned: so it gets a zero-filled buffer of the sidecar's size at once,
   // compiles while the snapshot downloads and unpacks, and the buffer is
   // filled before fsInit returns. Should anything fail, the buffer's magic
-  // number stays zero, Pyodide rejects it and the normal start follows with
-  // the real error as the reason.
+  // number is zero (or wiped by fsInit), Pyodide rejects it and the normal
+  // start follows with the real error as the reason.
   const memory = checked.then(({ info }) => new Uint8Array(info.memory_size));
   const container = (async () => {
     const { info } = await checked;
@@ -337,11 +337,11 @@ async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetch
     ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
     _loadSnapshot: memory,
     // Runs once the WebAssembly is instantiated and before Python resumes
-    // from the memory: the memory must be rebuilt, and the snapshot's
-    // package files go back where the build had them. Never throws (Pyodide does not await
-    // this hook's errors): a failure is kept and reported instead of
-    // Pyodide's complaint about the memory, whose magic number is wiped so
-    // that Pyodide never resumes from it.
+    // from the memory: the base pages are rebuilt from the runtime's fresh
+    // memory, and the snapshot's package files go back where the build had
+    // them. Never throws (Pyodide does not await this hook's errors): a
+    // failure is kept and reported instead of Pyodide's complaint about the
+    // memory, whose magic number is wiped so Pyodide never resumes from it.
     fsInit: async (FS, { sitePackages }) => {
       mark("runtime instantiated");
       const runtimeMemory = capture.memory();

@@ -242,11 +242,14 @@ export function captureRuntimeWasm(wasmURL = null) {
       if (seen !== null || !isRuntime(input)) return response;
       const compiled = W.compileStreaming(response);
       compiled.catch(() => {});
-      seen = { response, compiled };
+      seen = { response, compiled, resolved: null };
+      response.then((r) => (seen.resolved = r)).catch(() => {});
       return response;
     };
     W.instantiateStreaming = function (source, imports) {
-      if (seen === null || source !== seen.response) {
+      // the promise fetch returned, or the response it gave: either way its
+      // body is the compile's
+      if (seen === null || (source !== seen.response && source !== seen.resolved)) {
         return original.instantiateStreaming.call(this, source, imports).then(keep);
       }
       return seen.compiled.then((module) => W.instantiate(module, imports).then((instance) => keep({ instance, module })));
