@@ -190,3 +190,20 @@ def test_one_engine_worker_started_from_head(page, server):
     assert headline == _couple_headline()
     assert page.evaluate("() => window.__workers") == 1
     assert page.get_attribute("body", "data-engine-phase") == "ready"
+
+
+def test_snapshot_start_downloads_each_file_once_and_no_wheel(page, server):
+    # Until the engine is ready (the service worker registers only after
+    # that): the runtime, the standard library and the snapshot once each,
+    # and no wheel (the snapshot carries the package files it needs; the
+    # wheels are for the fallback start, precached later).
+    seen = []
+    page.on("request", lambda request: seen.append(request.url))
+    page.goto(f"{server}/couple.html")
+    wait_live(page, 0)
+    assert page.get_attribute("body", "data-engine-mode") == "snapshot"
+    names = [url.rsplit("/", 1)[-1].split("?")[0] for url in seen]
+    for name in ["pyodide.asm.wasm", "pyodide.asm.mjs", "noblegap-stdlib.zip", "noblegap-snapshot.gzip"]:
+        assert names.count(name) == 1, (name, names)
+    assert not [n for n in names if n.endswith(".whl")], names
+    assert "python_stdlib.zip" not in names
