@@ -200,20 +200,25 @@ def test_snapshot_known_case_is_cpython_answer(snapshot_info):
     assert case["expect"]["headline"] == result["result"]["display"]["headline"]
 
 
+def _leb128(data: bytes, at: int, signed: bool = False) -> tuple[int, int]:
+    """(value, offset after it) of the LEB128 number at data[at]."""
+    result = shift = 0
+    while True:
+        byte = data[at]
+        at += 1
+        result |= (byte & 0x7F) << shift
+        shift += 7
+        if not byte & 0x80:
+            if signed and byte & 0x40:
+                result -= 1 << shift
+            return result, at
+
+
 def _wasm_data_segments(wasm: bytes):
     """Active data segments of a WebAssembly binary, [(offset, bytes)]: an
     independent reader (restore.mjs has the browser's)."""
     def leb(at, signed=False):
-        result = shift = 0
-        while True:
-            byte = wasm[at]
-            at += 1
-            result |= (byte & 0x7F) << shift
-            shift += 7
-            if not byte & 0x80:
-                if signed and byte & 0x40:
-                    result -= 1 << shift
-                return result, at
+        return _leb128(wasm, at, signed)
 
     assert wasm[:4] == b"\0asm"
     segments, at = [], 8
@@ -296,14 +301,7 @@ def _decode_runs(blob):
     runs, at, end = [], 0, 0
     values = []
     while at < len(blob):
-        value = shift = 0
-        while True:
-            byte = blob[at]
-            at += 1
-            value |= (byte & 0x7F) << shift
-            shift += 7
-            if not byte & 0x80:
-                break
+        value, at = _leb128(blob, at)
         values.append(value)
     for skip, length in zip(values[::2], values[1::2]):
         runs.append((end + skip, end + skip + length))
