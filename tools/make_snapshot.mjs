@@ -40,6 +40,7 @@ const files = await Promise.all(
 let sitePackages = null;
 let base = null;
 let gaps = null;
+let fsInitError = null;
 const capture = captureRuntimeWasm();
 const py = await loadPyodide({
   indexURL: join(site, "pyodide") + "/",
@@ -48,20 +49,26 @@ const py = await loadPyodide({
   stdout: (msg) => console.error(msg),
   stderr: (msg) => console.error(msg),
   _makeSnapshot: true,
+  // (Pyodide does not await this hook's errors: they are kept and thrown below)
   fsInit: async (FS, info) => {
     sitePackages = info.sitePackages;
-    const memory = capture.memory();
-    capture.release();
-    const wasm = await capture.bytes;
-    if (!wasm || !memory) throw new Error("the runtime's WebAssembly was not seen");
-    base = dataSegmentsImage(wasm);
-    gaps = dataSegmentsGaps(wasm, base.length);
-    // what the browser will do: this runtime's memory, gaps zeroed
-    const live = baseFromMemory(memory.buffer, { header: { base: { size: base.length } }, gaps });
-    if (live.some((b, i) => b !== base[i])) throw new Error("the runtime's memory differs from its data segments");
+    try {
+      const memory = capture.memory();
+      capture.release();
+      const wasm = await capture.bytes;
+      if (!wasm || !memory) throw new Error("the runtime's WebAssembly was not seen");
+      base = dataSegmentsImage(wasm);
+      gaps = dataSegmentsGaps(wasm, base.length);
+      // what the browser will do: this runtime's memory, gaps zeroed
+      const live = baseFromMemory(memory.buffer, { header: { base: { size: base.length } }, gaps });
+      if (live.some((b, i) => b !== base[i])) throw new Error("the runtime's memory differs from its data segments");
+    } catch (err) {
+      fsInitError = err;
+    }
   },
 });
 capture.release();
+if (fsInitError) throw fsInitError;
 if (!base) throw new Error("fsInit did not run");
 await writeFile(job.base_out, base);
 await writeFile(job.gaps_out, encodeRuns(gaps));
@@ -80,9 +87,12 @@ _prefix = ${JSON.stringify(sitePackages + "/")}
 _out = sorted({m.__spec__.origin[len(_prefix):] for m in list(sys.modules.values())
                if getattr(m, "__spec__", None) is not None and isinstance(m.__spec__.origin, str)
                and m.__spec__.origin.startswith(_prefix)})
-json.dumps(_out)
+_json = json.dumps(_out)
+del _prefix, _out
+_json
 `),
 );
+py.runPython("del _json");
 py.runPython("import gc; gc.collect()");
 const zeroFilled = zeroFreeMemory(py._module);
 const warmed = performance.now() - t0;
