@@ -37,8 +37,6 @@ import {
   sha256Hex,
 } from "./restore.mjs";
 
-export { SNAPSHOT_FORMAT, sha256Hex };
-
 export const LOCK_FILE = "noblegap-lock.json";
 // The site's standard library (build.py STDLIB_FILE): the members of
 // Pyodide's python_stdlib.zip the engine can import, next to pyodide.mjs.
