@@ -2,7 +2,8 @@
 
 import pytest
 
-from noblegap import api, couples
+from noblegap import api
+from noblegap.calculators import couple as couples
 
 METALS = [m for m, _ in couples.metal_ids()]
 

@@ -4,7 +4,9 @@ import shutil
 
 import pytest
 
-from noblegap import data, materials, validate
+from noblegap.materials import data
+from noblegap.materials import alloys as materials
+from noblegap.materials import validate
 from noblegap.errors import DataError
 
 DATA_DIR = data._data_dir()

@@ -3,7 +3,8 @@
 import pytest
 from hypothesis import given, strategies as st
 
-from noblegap import api, electrodes
+from noblegap import api
+from noblegap.materials import references as electrodes
 
 REFS = [r for r, _ in electrodes.reference_ids()]
 

@@ -3,7 +3,11 @@
 import pytest
 from hypothesis import given, settings, strategies as st
 
-from noblegap import api, data, fasteners, materials, rates
+from noblegap import api
+from noblegap.materials import data
+from noblegap.calculators import fastener as fasteners
+from noblegap.materials import alloys as materials
+from noblegap.methods import faraday as rates
 from noblegap.errors import MissingDataError
 
 from fastener_cases import CASES

@@ -6,7 +6,10 @@ from xml.sax.saxutils import escape
 import pytest
 from hypothesis import given, settings, strategies as st
 
-from noblegap import api, data, galvanic, materials
+from noblegap import api
+from noblegap.materials import data
+from noblegap.calculators import series as galvanic
+from noblegap.materials import alloys as materials
 
 ALLOYS = [r["id"] for r in data.table("alloys")]
 ENVS = [r["id"] for r in data.table("environments")]

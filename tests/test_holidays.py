@@ -10,7 +10,13 @@ import numpy as np
 import pytest
 from hypothesis import given, settings, strategies as st
 
-from noblegap import api, coatings, data, holidays, rates, units, validate
+from noblegap import api
+from noblegap.methods import coatings
+from noblegap.materials import data
+from noblegap.calculators import holiday as holidays
+from noblegap.methods import faraday as rates
+from noblegap import units
+from noblegap.materials import validate
 from noblegap.errors import ChoiceError, InputError, InputErrors, RangeError
 
 CALC = holidays.CALCULATORS[0]

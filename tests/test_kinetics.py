@@ -9,9 +9,9 @@ import numpy as np
 import pytest
 from hypothesis import given, settings, strategies as st
 
-from noblegap import kinetics
+from noblegap.methods import kinetics
 from noblegap.errors import InputError, MissingDataError
-from noblegap.kinetics import Electrode, solve_couple
+from noblegap.methods.kinetics import Electrode, solve_couple
 
 
 def _np_net(e, E):

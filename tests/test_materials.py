@@ -2,7 +2,10 @@
 
 import pytest
 
-from noblegap import data, electrodes, materials, schema
+from noblegap.materials import data
+from noblegap.materials import references as electrodes
+from noblegap.materials import alloys as materials
+from noblegap import schema
 from noblegap.errors import ChoiceError, MissingDataError
 
 ALLOY_IDS = [r["id"] for r in data.table("alloys")]

@@ -6,8 +6,10 @@ import pytest
 from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 
-from noblegap import api, nernst
-from noblegap.couples import half_reaction, metal_ids
+from noblegap import api
+from noblegap.calculators import nernst as nernst_page
+from noblegap.methods import nernst
+from noblegap.materials.potentials import half_reaction, metal_ids
 from noblegap.errors import (ChoiceError, InputErrors, MissingDataError, RangeError,
                              UnitError)
 
@@ -26,7 +28,7 @@ def run_cell(a, b, ca, cb, T_K=298.15, use_coef=True, g_a=1.0, g_b=1.0):
 
 @given(metal, metal, temp_K, coef)
 def test_unit_activities_give_standard_potentials(a, b, T_K, c):
-    out = nernst.compute_nernst(a, b, "1 mol/L", "1 mol/L", temperature=T_K,
+    out = nernst_page.compute_nernst(a, b, "1 mol/L", "1 mol/L", temperature=T_K,
                                 temperature_coefficient=c)
     assert out["E_cell_V"] == pytest.approx(out["E0_cell_V"], abs=1e-12)
     assert out["E_a_V_SHE"] == pytest.approx(out["E0_a_V_SHE"], abs=1e-12)
@@ -66,12 +68,12 @@ def test_at_the_reversal_ratio_the_cell_potential_is_zero(a, b, ca, T_K, I):
        st.floats(min_value=1e-6, max_value=1.0))
 def test_same_quantity_in_different_units_gives_the_same_answer(a, b, ca, cb):
     M_b = half_reaction(b)["ion_molar_mass_g_mol"]
-    ref = nernst.compute_nernst(a, b, f"{ca!r} mol/L", f"{cb!r} mol/L")["E_cell_V"]
+    ref = nernst_page.compute_nernst(a, b, f"{ca!r} mol/L", f"{cb!r} mol/L")["E_cell_V"]
     for text_a, text_b in ((f"{ca * 1e3!r} mmol/L", f"{cb * M_b * 1e3!r} mg/L"),
                            (f"{ca!r} M", f"{cb * 1e6!r} µmol/L"),
                            (f"{ca!r}", f"{cb * M_b * 1e3!r} ppm"),
                            (f"{ca!r} mol/kg", f"{cb * M_b!r} g/L")):
-        got = nernst.compute_nernst(a, b, text_a, text_b)["E_cell_V"]
+        got = nernst_page.compute_nernst(a, b, text_a, text_b)["E_cell_V"]
         assert got == pytest.approx(ref, abs=1e-9)
 
 
@@ -86,7 +88,7 @@ def test_independent_reference_with_numpy():
     np = pytest.importorskip("numpy")
     F, R = 96485.33212, 8.314462618          # CODATA 2018, typed here as a reference only
     T = 310.0
-    out = nernst.compute_nernst("Al", "Cu", "2e-3 mol/L", "3e-4 mol/L", temperature=T,
+    out = nernst_page.compute_nernst("Al", "Cu", "2e-3 mol/L", "3e-4 mol/L", temperature=T,
                                 temperature_coefficient="off")
     E0 = 0.3419 - (-1.662)
     E_ref = E0 - R * T / (6 * F) * np.log(2e-3 ** 2 / 3e-4 ** 3)
@@ -96,7 +98,7 @@ def test_independent_reference_with_numpy():
 # --- the cell bookkeeping ----------------------------------------------------
 
 def test_aluminium_copper_balances_six_electrons():
-    out = nernst.compute_nernst("Al", "Cu", "0.01 mol/L", "0.1 mol/L")
+    out = nernst_page.compute_nernst("Al", "Cu", "0.01 mol/L", "0.1 mol/L")
     assert out["n"] == 6
     assert out["Q_exponents"] == {"a": 2, "b": 3}
     assert out["Q"] == pytest.approx(0.01 ** 2 / 0.1 ** 3, rel=1e-12)
@@ -111,13 +113,13 @@ def test_electron_balance():
 
 
 def test_hydrogen_half_cell_uses_two_ions():
-    out = nernst.compute_nernst("H2", "Cu", "0.1 mol/L", "1 mol/L")
+    out = nernst_page.compute_nernst("H2", "Cu", "0.1 mol/L", "1 mol/L")
     # 2H+ + 2e- = H2: E = 0 + (2RT/2F) ln 0.1 = -59.16 mV
     assert out["E_a_V_SHE"] == pytest.approx(-nernst.nernst_slope(298.15), abs=1e-12)
 
 
 def test_reversed_couple_copper_silver():
-    out = nernst.compute_nernst("Cu", "Ag", "1 M", "1e-12 M")
+    out = nernst_page.compute_nernst("Cu", "Ag", "1 M", "1e-12 M")
     assert out["standard_anode"] == "Cu"
     assert out["anode"] == "Ag" and out["cathode"] == "Cu"
     assert out["reversed"] is True
@@ -126,7 +128,7 @@ def test_reversed_couple_copper_silver():
 
 
 def test_daniell_cell_does_not_reverse_and_says_why():
-    out = nernst.compute_nernst("Zn", "Cu", "0.1 M", "0.01 M")
+    out = nernst_page.compute_nernst("Zn", "Cu", "0.1 M", "0.01 M")
     assert out["reversed"] is False
     assert out["anode"] == "Zn"
     assert out["reversal_feasible"] is False
@@ -135,15 +137,15 @@ def test_daniell_cell_does_not_reverse_and_says_why():
 
 
 def test_equal_concentration_cell_has_no_anode():
-    out = nernst.compute_nernst("Zn", "Zn", "0.1 M", "0.1 M")
+    out = nernst_page.compute_nernst("Zn", "Zn", "0.1 M", "0.1 M")
     assert out["E_cell_V"] == 0
     assert out["anode"] is None and out["reversed"] is False
     assert out["reversal_log10_ratio"] == pytest.approx(0.0, abs=1e-12)
 
 
 def test_temperature_coefficient_on_and_off():
-    on = nernst.compute_nernst("Zn", "Al", "1 M", "1 M", temperature=308.15)
-    off = nernst.compute_nernst("Zn", "Al", "1 M", "1 M", temperature=308.15,
+    on = nernst_page.compute_nernst("Zn", "Al", "1 M", "1 M", temperature=308.15)
+    off = nernst_page.compute_nernst("Zn", "Al", "1 M", "1 M", temperature=308.15,
                                 temperature_coefficient="off")
     assert on["E0_a_V_SHE"] == pytest.approx(-0.7618 + 0.119e-3 * 10, abs=1e-12)
     assert off["E0_a_V_SHE"] == pytest.approx(-0.7618, abs=1e-12)
@@ -158,7 +160,7 @@ def test_davies_activity_coefficients():
     expect_z2 = 10 ** (-0.509 * 4 * (s / (1 + s) - 0.3 * 0.01))
     assert nernst.davies_gamma(2, 0.01) == pytest.approx(expect_z2, rel=1e-12)
     assert nernst.davies_gamma(1, 0.0) == 1.0
-    out = nernst.compute_nernst("Zn", "Cu", "0.1 M", "0.01 M", activity="davies",
+    out = nernst_page.compute_nernst("Zn", "Cu", "0.1 M", "0.01 M", activity="davies",
                                 ionic_strength=10.0)
     assert out["gamma_a"] == pytest.approx(expect_z2, rel=1e-12)
     assert out["activity_a"] == pytest.approx(0.1 * expect_z2, rel=1e-12)
@@ -219,7 +221,7 @@ def test_mass_unit_without_molar_mass_is_refused():
 
 def test_compute_collects_both_concentration_errors():
     with pytest.raises(InputErrors, match="2 inputs need attention") as info:
-        nernst.compute_nernst("Zn", "Cu", "0 M", "3 V")
+        nernst_page.compute_nernst("Zn", "Cu", "0 M", "3 V")
     assert [e.field for e in info.value.errors] == ["conc_a", "conc_b"]
 
 
@@ -232,7 +234,7 @@ def test_half_cell_refuses_zero_activity():
 
 def test_unknown_metal_is_a_choice_error():
     with pytest.raises(ChoiceError, match="Unknown half-reaction"):
-        nernst.compute_nernst("Zinc-ish", "Cu", "1 M", "1 M")
+        nernst_page.compute_nernst("Zinc-ish", "Cu", "1 M", "1 M")
 
 
 @pytest.mark.parametrize("inputs, field, words", [

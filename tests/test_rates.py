@@ -5,7 +5,7 @@ import math
 import pytest
 from hypothesis import given, strategies as st
 
-from noblegap import rates
+from noblegap.methods import faraday as rates
 from noblegap.errors import InputError
 
 pos = st.floats(min_value=1e-6, max_value=1e3, allow_nan=False, allow_infinity=False)

@@ -12,10 +12,10 @@ import importlib
 import math
 
 from . import __version__
-from .errors import ChoiceError, InputError, NoblegapError
+from .errors import ChoiceError, InputError, NoblegapError, suggest
 
 # Modules that define CALCULATORS (a list of schema.Calculator), in page order.
-CALCULATOR_MODULES = ("electrodes", "couples", "galvanic", "nernst", "fasteners", "holidays")
+CALCULATOR_MODULES = ("convert", "couple", "series", "nernst", "fastener", "holiday")
 
 _REGISTRY = None
 
@@ -26,7 +26,7 @@ def calculators():
     if _REGISTRY is None:
         reg = {}
         for mod_name in CALCULATOR_MODULES:
-            mod = importlib.import_module(f"{__package__}.{mod_name}")
+            mod = importlib.import_module(f"{__package__}.calculators.{mod_name}")
             for calc in mod.CALCULATORS:
                 reg[calc.name] = calc
         _REGISTRY = reg
@@ -47,7 +47,6 @@ def get(calc):
     """Return the Calculator named ``calc`` or raise ChoiceError."""
     reg = calculators()
     if calc not in reg:
-        from .data import suggest
         raise ChoiceError(f"Unknown calculator {calc!r}.", field="calc", value=calc,
                           allowed=", ".join(reg), suggestions=suggest(calc, reg))
     return reg[calc]

@@ -137,3 +137,17 @@ class InputErrors(NoblegapError, ValueError):
         out = super().to_dict()
         out["errors"] = [e.to_dict() for e in self.errors]
         return out
+
+
+def suggest(value, candidates, limit=5):
+    """Return up to ``limit`` candidates close to ``value`` (difflib, case-folded)."""
+    import difflib
+    cands = list(candidates)
+    lowered = {c.lower(): c for c in cands}
+    hits = difflib.get_close_matches(str(value).lower(), list(lowered), n=limit, cutoff=0.5)
+    starts = [c for c in cands if c.lower().startswith(str(value).lower()[:3])] if value else []
+    out = []
+    for c in [lowered[h] for h in hits] + starts:
+        if c not in out:
+            out.append(c)
+    return out[:limit]

@@ -14,7 +14,7 @@ from dataclasses import dataclass, field as dc_field
 from typing import Any, Callable
 
 from . import units
-from .errors import ChoiceError, InputError, InputErrors, NoblegapError, RangeError
+from .errors import ChoiceError, InputError, InputErrors, NoblegapError, RangeError, suggest
 
 QUANTITY, CHOICE, INTEGER, NUMBER, TEXT = "quantity", "choice", "integer", "number", "text"
 
@@ -122,7 +122,6 @@ class Field:
             folded = {cid.lower(): cid for cid in ids}
             if str(text).lower() in folded:
                 return folded[str(text).lower()]
-            from .data import suggest
             raise ChoiceError(f"{text!r} is not one of the choices for {self.label.lower()}.",
                               field=self.key, value=raw, allowed=", ".join(ids),
                               suggestions=suggest(text, ids))

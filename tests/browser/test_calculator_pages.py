@@ -5,7 +5,8 @@ from __future__ import annotations
 from urllib.parse import unquote, urlencode
 
 from conftest import wait_live
-from noblegap import api, materials
+from noblegap import api
+from noblegap.materials import alloys as materials
 
 
 def _chart_svg(page, index=0):

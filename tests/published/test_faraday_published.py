@@ -8,7 +8,7 @@ value printed as 0.0116 is checked to ±0.00005.
 
 import pytest
 
-from noblegap import rates
+from noblegap.methods import faraday as rates
 
 I_1_UA_CM2 = rates.uA_cm2_to_A_m2(1.0)   # 1 µA/cm² = 0.01 A/m²
 

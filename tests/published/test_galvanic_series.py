@@ -8,7 +8,8 @@ as printed in its worked rates (four significant figures: ±0.005 g/mol).
 
 import pytest
 
-from noblegap import data, materials
+from noblegap.materials import data
+from noblegap.materials import alloys as materials
 
 TOL_V = 0.005   # two printed decimals
 

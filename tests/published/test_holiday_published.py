@@ -6,7 +6,8 @@ tests/test_holidays.py and say so.
 
 import pytest
 
-from noblegap import coatings, units
+from noblegap.methods import coatings
+from noblegap import units
 
 
 # DNV-RP-B401, §6.4 (mean and final coating breakdown factors): with

@@ -10,13 +10,14 @@ import math
 
 import pytest
 
-from noblegap import nernst
+from noblegap.calculators import nernst as nernst_page
+from noblegap.methods import nernst
 
 
 # OpenStax Chemistry 2e, Example 17.8: Zn | Zn2+ (0.10 M) || Zn2+ (0.50 M) | Zn
 # at 25 °C -> +0.021 V (printed to 3 decimals: tolerance 0.0005 V).
 def test_openstax_chem2e_example_17_8_zinc_concentration_cell():
-    out = nernst.compute_nernst("Zn", "Zn", "0.10 M", "0.50 M", temperature=298.15)
+    out = nernst_page.compute_nernst("Zn", "Zn", "0.10 M", "0.50 M", temperature=298.15)
     assert out["E_cell_V"] == pytest.approx(0.021, abs=0.0005)
     assert out["n"] == 2
     assert out["anode"] == "Zn"          # the dilute side corrodes
@@ -51,7 +52,7 @@ def test_codata2018_nernst_slope_at_298_15_K():
 # our table (CRC/OpenStax Appendix L: Cu 0.3419 V, Zn -0.7618 V, E° = 1.1037 V),
 # temperature coefficients off. Pins the table-based result so edits are deliberate.
 def test_regression_pin_daniell_cell_from_table():
-    out = nernst.compute_nernst("Zn", "Cu", "0.1 mol/L", "0.01 mol/L", temperature=298.15,
+    out = nernst_page.compute_nernst("Zn", "Cu", "0.1 mol/L", "0.01 mol/L", temperature=298.15,
                                 temperature_coefficient="off")
     assert out["E0_cell_V"] == pytest.approx(1.1037, abs=1e-12)
     assert out["E_cell_V"] == pytest.approx(1.074120, abs=1e-6)

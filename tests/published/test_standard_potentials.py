@@ -12,7 +12,8 @@ a unit of the last printed digit. Values the shared sheet marks as recalled
 
 import pytest
 
-from noblegap import data, electrodes
+from noblegap.materials import data
+from noblegap.materials import references as electrodes
 
 
 def _half(value_text):

@@ -42,10 +42,12 @@ from __future__ import annotations
 
 import re
 
-from . import electrodes, materials, units
-from .report import Report
-from .schema import Calculator
-from .svg import Svg, nice_ticks, scale
+from .. import units
+from ..materials import alloys, references
+from ..report import Report
+from ..schema import Calculator
+from ..svg import Svg, nice_ticks, scale
+from .fields import reference_field
 
 COMPATIBLE, MARGINAL, INCOMPATIBLE = "compatible", "marginal", "incompatible"
 VERDICT_CLASS = {COMPATIBLE: "ok", MARGINAL: "caution", INCOMPATIBLE: "avoid"}
@@ -53,7 +55,7 @@ OVERLAP, NONE = "overlap", "none"
 
 
 def _ref_name(ref):
-    return electrodes.reference(ref)["name"]
+    return references.reference(ref)["name"]
 
 
 def _ref_short(ref):
@@ -72,12 +74,12 @@ def ordered_series(environment="seawater_flowing", reference="sce"):
         ``{id, name, uns, state, E_noble_V, E_active_V, source, confidence}``.
     """
     out = []
-    for row in materials.alloy_table():
-        hi, lo = materials.potential_range(row["id"], environment, reference)
+    for row in alloys.alloy_table():
+        hi, lo = alloys.potential_range(row["id"], environment, reference)
         out.append({"id": row["id"], "name": row["name"], "uns": row["uns"],
-                    "state": row["state"], "label": materials._label(row),
+                    "state": row["state"], "label": alloys._label(row),
                     "E_noble_V": hi, "E_active_V": lo,
-                    "source": materials.cite_potential(row),
+                    "source": alloys.cite_potential(row),
                     "confidence": row["confidence"]})
     out.sort(key=lambda r: (-r["E_noble_V"], -r["E_active_V"]))
     return out
@@ -151,7 +153,7 @@ def _v(value):
 
 
 def compute_series(environment, reference, alloy_a=None, alloy_b=None):
-    env = materials.environment(environment)
+    env = alloys.environment(environment)
     ref_label = _ref_short(reference)
     rows = ordered_series(environment, reference)
     highlight = [a for a in (alloy_a, alloy_b) if a]
@@ -162,9 +164,9 @@ def compute_series(environment, reference, alloy_a=None, alloy_b=None):
              "flowing seawater. Of two joined alloys, the one lower in the list "
              "(further left on the chart) is the anode and corrodes; the further "
              "apart the bars, the stronger the drive.")
-    for w in materials.applicability(environment):
+    for w in alloys.applicability(environment):
         rep.warn(w)
-    if reference != materials.SERIES_REF:
+    if reference != alloys.SERIES_REF:
         rep.note(f"Potentials converted from SCE to {_ref_name(reference)} at 25 °C: "
                  f"E(vs {reference}) = E(vs SCE) + E_SCE − E_{reference}.")
     if highlight:
@@ -197,7 +199,7 @@ def compute_series(environment, reference, alloy_a=None, alloy_b=None):
                                       "E_active_V", "source", "confidence")}
                    for r in rows],
         "highlight": highlight,
-        "applicability": materials.applicability(environment),
+        "applicability": alloys.applicability(environment),
         "display": rep.to_dict(),
     }
 
@@ -206,10 +208,10 @@ def _apply_state(alloy_id, state, field):
     """The row id for the requested surface state (``auto`` keeps the id as typed)."""
     if state in (None, "", "auto"):
         return alloy_id
-    row = materials.alloy(alloy_id)
+    row = alloys.alloy(alloy_id)
     if row["state"] == "n/a":
         return alloy_id
-    return materials.resolve_alloy(row["uns"] or alloy_id, field, state=state)
+    return alloys.resolve_alloy(row["uns"] or alloy_id, field, state=state)
 
 
 def classify(dE_min, dE_max, allowed):
@@ -238,10 +240,10 @@ def couple(alloy_a, alloy_b, environment="seawater_flowing"):
     >>> couple("S31600", "zinc")["anode"]
     'zinc'
     """
-    ra, rb = materials.alloy(alloy_a), materials.alloy(alloy_b)
-    env = materials.environment(environment)
-    hi_a, lo_a = materials.potential_range(ra["id"], environment)
-    hi_b, lo_b = materials.potential_range(rb["id"], environment)
+    ra, rb = alloys.alloy(alloy_a), alloys.alloy(alloy_b)
+    env = alloys.environment(environment)
+    hi_a, lo_a = alloys.potential_range(ra["id"], environment)
+    hi_b, lo_b = alloys.potential_range(rb["id"], environment)
     mid_a, mid_b = 0.5 * (hi_a + lo_a), 0.5 * (hi_b + lo_b)
     if ra["id"] == rb["id"]:
         anode = cathode = NONE
@@ -282,17 +284,17 @@ LABEL = {COMPATIBLE: "Compatible", MARGINAL: "Marginal", INCOMPATIBLE: "Incompat
 def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
     alloy_a = _apply_state(alloy_a, state_a, "state_a")
     alloy_b = _apply_state(alloy_b, state_b, "state_b")
-    ra, rb = materials.alloy(alloy_a), materials.alloy(alloy_b)
-    env = materials.environment(environment)
+    ra, rb = alloys.alloy(alloy_a), alloys.alloy(alloy_b)
+    env = alloys.environment(environment)
     c = couple(alloy_a, alloy_b, environment)
-    la, lb = materials._label(ra), materials._label(rb)
+    la, lb = alloys._label(ra), alloys._label(rb)
     d_min, d_max, allowed = c["delta_E_V_min"], c["delta_E_V_max"], c["allowed_delta_E_V"]
     cls = c["compatibility"]
     where = f"for {env['name'].lower()}"
     rep = Report()
     for st, row in ((state_a, ra), (state_b, rb)):
         if st in ("passive", "active") and row["state"] == "n/a":
-            rep.note(f"{materials.alloy_label(row)} has no passive/active distinction in "
+            rep.note(f"{alloys.alloy_label(row)} has no passive/active distinction in "
                      f"the series; the state '{st}' does not change its range.")
     if c["anode"] == NONE:
         rep.headline(f"{la} against itself: no galvanic couple (ΔE = 0 V).")
@@ -308,20 +310,20 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
                 "one corrodes: it depends on the surface condition of each piece. ")
         if likely:
             other = lb if likely == ra["id"] else la
-            text += (f"On mid-range values {materials._label(materials.alloy(likely))} is "
+            text += (f"On mid-range values {alloys._label(alloys.alloy(likely))} is "
                      f"slightly more active than {other} "
                      f"(by {units.fmt(c['delta_E_V_mid'], 'V', 2)}).")
         rep.para(text)
     else:
-        an, ca = materials.alloy(c["anode"]), materials.alloy(c["cathode"])
-        rep.headline(f"{materials._label(an)} is the anode and corrodes faster; "
-                     f"{materials._label(ca)} is the cathode. ΔE = "
+        an, ca = alloys.alloy(c["anode"]), alloys.alloy(c["cathode"])
+        rep.headline(f"{alloys._label(an)} is the anode and corrodes faster; "
+                     f"{alloys._label(ca)} is the cathode. ΔE = "
                      f"{units.fmt(d_min, '', 2)} to {units.fmt(d_max, 'V', 2)}.")
-        rep.para(f"{materials._label(an)} sits lower in the galvanic series "
-                 f"({_v(materials.potential_range(an['id'], environment)[1])} to "
-                 f"{_v(materials.potential_range(an['id'], environment)[0])} vs SCE) than "
-                 f"{materials._label(ca)}: joined in an electrolyte it gives up electrons "
-                 f"and corrodes faster than it would alone, while {materials._label(ca)} "
+        rep.para(f"{alloys._label(an)} sits lower in the galvanic series "
+                 f"({_v(alloys.potential_range(an['id'], environment)[1])} to "
+                 f"{_v(alloys.potential_range(an['id'], environment)[0])} vs SCE) than "
+                 f"{alloys._label(ca)}: joined in an electrolyte it gives up electrons "
+                 f"and corrodes faster than it would alone, while {alloys._label(ca)} "
                  "is protected.")
     allowed_txt = units.fmt(allowed, "V", 2)
     rep.verdict(VERDICT_CLASS[cls], LABEL[cls],
@@ -329,26 +331,26 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
     rep.para("A potential difference tells the direction and the drive, not the rate: a "
              "small anode on a large cathode (a steel bolt in a stainless plate) "
              "corrodes fast; a large anode with a small cathode barely notices.")
-    for w in materials.applicability(environment):
+    for w in alloys.applicability(environment):
         rep.warn(w)
     for row in (ra, rb) if ra["id"] != rb["id"] else (ra,):
         if row["confidence"] == "from-memory":
-            rep.warn(f"The range for {materials._label(row)} is not confirmed against a "
+            rep.warn(f"The range for {alloys._label(row)} is not confirmed against a "
                      f"published source: {row['locator']}.")
         if (row["state"] == "passive" and env["id"] != "seawater_flowing"
-                and materials.sibling(row["id"], "active")):
-            rep.warn(f"{materials._label(row)} may lose passivity in crevices, under "
+                and alloys.sibling(row["id"], "active")):
+            rep.warn(f"{alloys._label(row)} may lose passivity in crevices, under "
                      "deposits or in still, oxygen-poor water; then it behaves like its "
                      "active row. Set its state to active to check that case.")
         if row["id"] == "galvanized_steel":
             rep.note("Galvanized steel is represented by its zinc coating; once the zinc "
                      "is consumed locally the exposed steel follows the carbon-steel row.")
-    sources = {"alloy_a": materials.cite_potential(ra), "alloy_b": materials.cite_potential(rb),
-               "allowed": materials.cite_allowed(env)}
+    sources = {"alloy_a": alloys.cite_potential(ra), "alloy_b": alloys.cite_potential(rb),
+               "allowed": alloys.cite_allowed(env)}
     for key, row in (("a", ra), ("b", rb)):
-        hi, lo = materials.potential_range(row["id"], environment)
-        rep.row(f"{materials._label(row)}, range vs SCE", f"{_v(lo)} to {_v(hi)}",
-                materials.cite_potential(row), key=f"range_{key}")
+        hi, lo = alloys.potential_range(row["id"], environment)
+        rep.row(f"{alloys._label(row)}, range vs SCE", f"{_v(lo)} to {_v(hi)}",
+                alloys.cite_potential(row), key=f"range_{key}")
     rep.row("ΔE best case (closest ends)", units.fmt(d_min, "V", 2),
             "computed: ΔE_min = E_active(cathode) − E_noble(anode), 0 when the ranges "
             "overlap", key="delta_E_V_min")
@@ -361,7 +363,7 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
     if ai_a is not None and ai_b is not None:
         ai_diff = abs(ai_a - ai_b)
         rep.row("Anodic-index difference (cross-check)", units.fmt(ai_diff, "V", 2),
-                materials.cite_anodic_index(ra))
+                alloys.cite_anodic_index(ra))
     rows = [r for r in ordered_series(environment) if r["id"] in (ra["id"], rb["id"])]
     rep.chart("The pair in the series", str(series_svg(rows, "SCE", [ra["id"], rb["id"]])),
               f"Potential ranges of {la} and {lb}, V vs SCE.")
@@ -374,7 +376,7 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
         "range_a_V_SCE": list(c["range_a_V_SCE"]), "range_b_V_SCE": list(c["range_b_V_SCE"]),
         "anodic_index_difference_V": ai_diff,
         "sources": sources,
-        "applicability": materials.applicability(environment),
+        "applicability": alloys.applicability(environment),
         "display": rep.to_dict(),
     }
 
@@ -388,10 +390,10 @@ CALCULATORS = [
                "seawater. Of two joined alloys, the lower one corrodes. Pick two to "
                "highlight them, and any reference scale to read the potentials on."),
         fields=[
-            materials.environment_field(),
-            electrodes.reference_field("reference", "Potentials against", "sce"),
-            materials.alloy_field("alloy_a", "Highlight alloy A", "", optional=True),
-            materials.alloy_field("alloy_b", "Highlight alloy B", "", optional=True),
+            alloys.environment_field(),
+            reference_field("reference", "Potentials against", "sce"),
+            alloys.alloy_field("alloy_a", "Highlight alloy A", "", optional=True),
+            alloys.alloy_field("alloy_b", "Highlight alloy B", "", optional=True),
         ],
         compute=compute_series,
         example={"environment": "seawater_flowing", "reference": "sce",
@@ -405,11 +407,11 @@ CALCULATORS = [
                "a cell. Enter both (generic name or UNS number) and the environment: "
                "the page names the anode, the potential difference and a verdict."),
         fields=[
-            materials.alloy_field("alloy_a", "Alloy A", "S31600"),
-            materials.state_field("state_a", "Surface state of A"),
-            materials.alloy_field("alloy_b", "Alloy B", "A95083"),
-            materials.state_field("state_b", "Surface state of B"),
-            materials.environment_field(),
+            alloys.alloy_field("alloy_a", "Alloy A", "S31600"),
+            alloys.state_field("state_a", "Surface state of A"),
+            alloys.alloy_field("alloy_b", "Alloy B", "A95083"),
+            alloys.state_field("state_b", "Surface state of B"),
+            alloys.environment_field(),
         ],
         compute=compute_pair,
         example={"alloy_a": "316 stainless", "state_a": "auto",

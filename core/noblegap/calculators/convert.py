@@ -1,68 +1,17 @@
-"""Reference electrodes: converting a potential between scales.
+"""The reference-scale converter page: a measured potential on another scale.
 
-Sign convention: a potential ``E_V_X`` is the potential of the metal measured
-against reference electrode X (metal minus reference), in volts. A reference
-electrode's own potential is stated against the standard hydrogen electrode,
-``E_ref_V_SHE``. Then
-
-    E_V_SHE = E_V_X + E_ref_V_SHE(X)
-    E_V_Y   = E_V_X + E_ref_V_SHE(X) − E_ref_V_SHE(Y)
-
-A reference's potential at temperature T uses its published temperature
-coefficient where one exists: E(T) = E(25 °C) + (dE/dT)·(T − 298.15 K).
+The conversion itself, and its sign convention, is in
+:mod:`noblegap.materials.references`.
 """
 
 from __future__ import annotations
 
-from . import data, units
-from .report import Report
-from .schema import CHOICE, QUANTITY, Calculator, Field
-
-T25_K = 298.15
-
-
-def reference_ids():
-    """Ids and names of the reference electrodes in ``data/``."""
-    return [(r["id"], r["name"]) for r in data.table("reference_electrodes")]
-
-
-def reference(ref_id, field="reference"):
-    """Return the data row of a reference electrode (ChoiceError if unknown)."""
-    return data.lookup("reference_electrodes", ref_id, field=field, what="reference electrode")
-
-
-def reference_potential(ref_id, T_K=T25_K, field="reference"):
-    """Potential of a reference electrode vs SHE at ``T_K``.
-
-    Parameters
-    ----------
-    ref_id : str
-        Id in ``data/reference_electrodes.csv`` (``sce``, ``cse``, ...).
-    T_K : float
-        Temperature [K].
-
-    Returns
-    -------
-    tuple
-        (E_V_SHE [V], coefficient_used [bool], row)
-
-    Example
-    -------
-    >>> round(reference_potential("sce")[0], 4)
-    0.2412
-    """
-    row = reference(ref_id, field)
-    coef = row["dEdT_mV_per_K"]
-    if coef is None:
-        return row["E_V_SHE"], False, row
-    return row["E_V_SHE"] + coef * 1e-3 * (T_K - T25_K), True, row
-
-
-def to_scale(E_V, from_ref, to_ref, T_K=T25_K):
-    """Convert a potential from one reference scale to another [V]."""
-    e_from, _, _ = reference_potential(from_ref, T_K)
-    e_to, _, _ = reference_potential(to_ref, T_K)
-    return E_V + e_from - e_to
+from .. import units
+from ..materials import data
+from ..materials.references import T25_K, reference_potential
+from ..report import Report
+from ..schema import QUANTITY, Calculator, Field
+from .fields import reference_field, temperature_field
 
 
 def compute_convert(potential, from_ref, to_ref, temperature):
@@ -112,23 +61,6 @@ def compute_convert(potential, from_ref, to_ref, temperature):
         "sources": {"from_ref": data.cite(row_from), "to_ref": data.cite(row_to)},
         "display": rep.to_dict(),
     }
-
-
-TEMPERATURE_HELP = ("Liquid water at 1 atm: 0 to 100 °C. Reference potentials are "
-                    "tabulated at 25 °C.")
-
-
-def temperature_field(key="temperature", label="Temperature", default="25 °C", help=""):
-    """The temperature input every calculator shares (0–100 °C, liquid water)."""
-    return Field(key, label, QUANTITY, default=default, quantity="temperature", unit="degC",
-                 min=273.15, max=373.15, help=help or TEMPERATURE_HELP,
-                 range_note="The tabulated data applies to liquid water at 1 atm.")
-
-
-def reference_field(key, label, default, help=""):
-    return Field(key, label, CHOICE, default=default, choices=reference_ids,
-                 help=help or "Reference electrode the potential is measured against.",
-                 source="data/reference_electrodes.csv")
 
 
 CALCULATORS = [

@@ -15,7 +15,7 @@ so that adding or removing a row is a deliberate edit of this file too.
 from __future__ import annotations
 
 from . import data
-from .errors import DataError
+from ..errors import DataError
 
 # Row counts, pinned: change them together with the table.
 EXPECTED_ROWS = {

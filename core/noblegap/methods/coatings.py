@@ -29,8 +29,9 @@ from __future__ import annotations
 
 import math
 
-from . import data, units
-from .errors import RangeError
+from .. import units
+from ..errors import RangeError
+from ..materials import data
 
 LOW_VOLTAGE = "low_voltage_sponge"
 HIGH_VOLTAGE = "high_voltage_spark"

@@ -42,8 +42,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from . import data
-from .errors import InputError, MissingDataError
+from ..errors import InputError, MissingDataError
+from ..materials import data
 
 _LOG10 = math.log(10.0)
 _MAX_EXP = 300.0

@@ -48,8 +48,8 @@ from __future__ import annotations
 import math
 from typing import NamedTuple
 
-from . import units
-from .errors import InputError
+from .. import units
+from ..errors import InputError
 
 #: ASTM G102 K for CR in mm/yr with i in µA/cm², EW in g/mol, ρ in g/cm³ (as printed).
 K_MM_PER_YR_G102 = 3.27e-3

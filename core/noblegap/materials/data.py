@@ -19,7 +19,7 @@ from functools import lru_cache
 from importlib import resources
 from pathlib import Path
 
-from .errors import ChoiceError, DataError
+from ..errors import ChoiceError, DataError, suggest
 
 CONFIDENCE = ("published", "handbook-compiled", "common-practice", "from-memory")
 
@@ -32,10 +32,10 @@ INTEGER_COLUMNS = ("n", "count", "rank")
 
 
 def _data_dir():
-    packaged = resources.files(__package__).joinpath("_data")
+    packaged = resources.files("noblegap").joinpath("_data")
     if packaged.is_dir():
         return packaged
-    repo = Path(__file__).resolve().parents[2] / "data"
+    repo = Path(__file__).resolve().parents[3] / "data"
     return repo
 
 
@@ -149,17 +149,3 @@ def lookup(name, value, *, field, what, key="id"):
         return rows[folded[str(value).strip().lower()]]
     raise ChoiceError(f"Unknown {what} {value!r}.", field=field, value=value,
                       allowed=", ".join(rows), suggestions=suggest(value, rows))
-
-
-def suggest(value, candidates, limit=5):
-    """Return up to ``limit`` candidates close to ``value`` (difflib, case-folded)."""
-    import difflib
-    cands = list(candidates)
-    lowered = {c.lower(): c for c in cands}
-    hits = difflib.get_close_matches(str(value).lower(), list(lowered), n=limit, cutoff=0.5)
-    starts = [c for c in cands if c.lower().startswith(str(value).lower()[:3])] if value else []
-    out = []
-    for c in [lowered[h] for h in hits] + starts:
-        if c not in out:
-            out.append(c)
-    return out[:limit]

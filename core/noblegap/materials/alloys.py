@@ -36,9 +36,9 @@ from __future__ import annotations
 
 import re
 
-from . import data, electrodes
-from .errors import ChoiceError, MissingDataError
-from .schema import CHOICE, Field
+from . import data, references
+from ..errors import ChoiceError, MissingDataError, suggest
+from ..schema import CHOICE, Field
 
 STATES = ("passive", "active", "n/a")
 SERIES_REF = "sce"
@@ -187,7 +187,7 @@ def resolve_alloy(text, field="alloy", state=None):
                           value=text, allowed=allowed, suggestions=choices[:8])
     names = {r["id"]: r["id"] for r in rows}
     names.update({r["name"]: r["id"] for r in rows})
-    close = data.suggest(raw, list(names))
+    close = suggest(raw, list(names))
     sugg = []
     for c in close:
         if names[c] not in sugg:
@@ -287,7 +287,7 @@ def potential_range(alloy_id, env_id="seawater_flowing", ref=SERIES_REF):
             field="alloy", value=alloy_id)
     if ref == SERIES_REF:
         return hi, lo
-    return electrodes.to_scale(hi, SERIES_REF, ref), electrodes.to_scale(lo, SERIES_REF, ref)
+    return references.to_scale(hi, SERIES_REF, ref), references.to_scale(lo, SERIES_REF, ref)
 
 
 def alloy_field(key, label, default, help="", optional=False):

@@ -11,7 +11,7 @@ Method ``catchment`` (default): the cathode reaction is oxygen reduction at the
 environment's diffusion-limited current density i_L, so each member collects
 i_L per m² of effective area and the anode dissolves at
 
-    i_a = i_L · (A_c + A_a) / A_a           (:func:`noblegap.rates.catchment_current_density`)
+    i_a = i_L · (A_c + A_a) / A_a           (:func:`noblegap.faraday.catchment_current_density`)
 
 — the galvanic part i_L·A_c/A_a is what the couple adds. Method ``mixed``
 solves the couple potential of the two polarization curves
@@ -35,11 +35,13 @@ from __future__ import annotations
 
 import math
 
-from . import data, kinetics, materials, rates, units
-from .errors import InputError, MissingDataError
-from .report import Report
-from .schema import CHOICE, INTEGER, QUANTITY, Calculator, Field
-from .svg import Svg, nice_ticks, scale
+from .. import units
+from ..errors import InputError, MissingDataError
+from ..materials import alloys, data
+from ..methods import faraday, kinetics
+from ..report import Report
+from ..schema import CHOICE, INTEGER, QUANTITY, Calculator, Field
+from ..svg import Svg, nice_ticks, scale
 
 METHOD_CATCHMENT = "catchment"
 METHOD_MIXED = "mixed"
@@ -159,8 +161,8 @@ def potential_cases(fastener_id, plate_id, env_id):
         case when the ranges are apart, two when they overlap, none for the
         same alloy.
     """
-    rf = materials.potential_range(fastener_id, env_id)
-    rp = materials.potential_range(plate_id, env_id)
+    rf = alloys.potential_range(fastener_id, env_id)
+    rp = alloys.potential_range(plate_id, env_id)
     ranges = {"fastener": rf, "plate": rp}
     if fastener_id == plate_id or rf == rp:
         # the same alloy, or two alloys the series cannot tell apart (one group)
@@ -214,8 +216,8 @@ def couple_current(method, anode_id, cathode_id, env_id, i_L, A_anode_m2, A_cath
         ``E_couple_V`` (mixed only, else None), ``kinetics`` (rows used).
     """
     if method == METHOD_CATCHMENT:
-        i_a = rates.catchment_current_density(i_L, A_cathode_m2, A_anode_m2)
-        I_g = rates.galvanic_current_A(i_L, A_cathode_m2)
+        i_a = faraday.catchment_current_density(i_L, A_cathode_m2, A_anode_m2)
+        I_g = faraday.galvanic_current_A(i_L, A_cathode_m2)
         return {"i_anode_A_m2": i_a, "i_galvanic_A_m2": I_g / A_anode_m2, "i_own_A_m2": i_L,
                 "galvanic_current_A": I_g, "E_couple_V": None, "kinetics": None}
     ea, row_a = kinetics.electrode_from_data(anode_id, env_id, i_L, A_anode_m2, E_anode_V)
@@ -231,8 +233,8 @@ def couple_current(method, anode_id, cathode_id, env_id, i_L, A_anode_m2, A_cath
 
 
 def _life(allowance_m, i_A_m2, rho, EW):
-    mm_yr = rates.penetration_mm_per_yr(i_A_m2, EW, rho)
-    return mm_yr, rates.years_to_consume(allowance_m, mm_yr / 1000.0)
+    mm_yr = faraday.penetration_mm_per_yr(i_A_m2, EW, rho)
+    return mm_yr, faraday.years_to_consume(allowance_m, mm_yr / 1000.0)
 
 
 def judge(dE_max_V, allowed_V, life_total, life_galvanic, design_life_yr, isolated=False):
@@ -251,7 +253,7 @@ def judge(dE_max_V, allowed_V, life_total, life_galvanic, design_life_yr, isolat
     the allowance within the design life the reason says so.
     """
     def lasts(life):
-        return life.status != rates.LIFE_FINITE or life.years >= design_life_yr
+        return life.status != faraday.LIFE_FINITE or life.years >= design_life_yr
 
     own = ("" if lasts(life_total) else
            f"; the anode's total loss including its own corrosion uses the allowance in "
@@ -288,8 +290,8 @@ def evaluate(fastener_id, plate_id, env_id, *, kind, diameter_m, count, plate_ar
     The returned dict holds the governing (worst) case at top level and every
     possible-anode case in ``cases``.
     """
-    env = materials.environment(env_id)
-    f_row, p_row = materials.alloy(fastener_id), materials.alloy(plate_id)
+    env = alloys.environment(env_id)
+    f_row, p_row = alloys.alloy(fastener_id), alloys.alloy(plate_id)
     pc = potential_cases(fastener_id, plate_id, env_id)
     i_L = env["i_limit_A_m2"]
     if i_L is None:
@@ -349,7 +351,7 @@ def evaluate(fastener_id, plate_id, env_id, *, kind, diameter_m, count, plate_ar
             "own_current_density_A_m2": cur["i_own_A_m2"],
             "galvanic_current_A": cur["galvanic_current_A"],
             "E_couple_V_SCE": cur["E_couple_V"],
-            "penetration_mm_per_yr": mm_yr, "penetration_mpy": rates.mm_per_yr_to_mpy(mm_yr),
+            "penetration_mm_per_yr": mm_yr, "penetration_mpy": faraday.mm_per_yr_to_mpy(mm_yr),
             "galvanic_penetration_mm_per_yr": g_mm_yr, "own_penetration_mm_per_yr": o_mm_yr,
             "allowance_m": allow, "allowance_default": allow_default,
             "years_to_allowance": life.years, "life_status": life.status,
@@ -390,7 +392,7 @@ def alternatives(plate_id, env_id, geometry, current_fastener=None, limit=5):
     without kinetics data is evaluated by the catchment rule and flagged.
     """
     out = []
-    for fid in materials.fastener_alloys():
+    for fid in alloys.fastener_alloys():
         g = dict(geometry)
         fallback = False
         try:
@@ -406,7 +408,7 @@ def alternatives(plate_id, env_id, geometry, current_fastener=None, limit=5):
                 continue
         cls, reason = _verdict_of(ev, geometry["design_life_yr"])
         gov = ev["governing"]
-        row = materials.alloy(fid)
+        row = alloys.alloy(fid)
         out.append({
             "fastener": fid, "name": row["name"], "uns": row["uns"],
             "verdict": VERDICT_LABEL[cls], "verdict_class": cls, "reason": reason,
@@ -626,7 +628,7 @@ def compute_fastener(fastener, plate, environment, fastener_kind, diameter, coun
                      fastener_area, plate_area, thickness, band_width, allowance,
                      design_life, method):
     """Compute the fastener check from parsed inputs (SI floats)."""
-    design_life_yr = design_life / rates.SECONDS_PER_YEAR
+    design_life_yr = design_life / faraday.SECONDS_PER_YEAR
     geometry = {"kind": fastener_kind, "diameter_m": diameter, "count": count,
                 "plate_area_m2": plate_area, "thickness_m": thickness,
                 "design_life_yr": design_life_yr, "method": method,
@@ -638,7 +640,7 @@ def compute_fastener(fastener, plate, environment, fastener_kind, diameter, coun
     rep = Report()
     fr, pr = rows["fastener"], rows["plate"]
 
-    for w in materials.applicability(environment):
+    for w in alloys.applicability(environment):
         rep.warn(w)
     if ev["areas"]["fastener"] > plate_area:
         rep.warn("The fasteners' wetted area is larger than the plate's: check the areas "
@@ -703,14 +705,14 @@ def compute_fastener(fastener, plate, environment, fastener_kind, diameter, coun
     # ---- rows with sources
     rep.row("Fastener range", f"{units.fmt(pc['ranges']['fastener'][1], 'V')} to "
             f"{units.fmt(pc['ranges']['fastener'][0], 'V')} vs SCE",
-            materials.cite_potential(fr), key="fastener_range")
+            alloys.cite_potential(fr), key="fastener_range")
     rep.row("Plate range", f"{units.fmt(pc['ranges']['plate'][1], 'V')} to "
             f"{units.fmt(pc['ranges']['plate'][0], 'V')} vs SCE",
-            materials.cite_potential(pr), key="plate_range")
+            alloys.cite_potential(pr), key="plate_range")
     rep.row("ΔV, best to worst case", f"{units.fmt(pc['delta_E_V_min'], 'V')} to "
             f"{units.fmt(pc['delta_E_V_max'], 'V')}",
             "computed: ΔV = E(cathode) − E(anode) over both ranges", key="delta_E_V")
-    rep.row("Allowed ΔV here", units.fmt(ev["allowed"], "V"), materials.cite_allowed(env),
+    rep.row("Allowed ΔV here", units.fmt(ev["allowed"], "V"), alloys.cite_allowed(env),
             key="allowed_delta_E_V")
     rep.row("Oxygen limiting current density i_L", units.fmt(ev["i_L"], "A/m²"),
             data.cite(env), key="i_limit")
@@ -725,9 +727,9 @@ def compute_fastener(fastener, plate, environment, fastener_kind, diameter, coun
     if gov is not None:
         an = rows[gov["anode_role"]]
         rep.row("Anode density", units.fmt(an["density_g_cm3"], "g/cm³"),
-                materials.cite_density(an), key="density")
+                alloys.cite_density(an), key="density")
         rep.row("Anode equivalent weight", units.fmt(an["equivalent_weight_g_mol"], "g/mol"),
-                materials.cite_ew(an), key="EW")
+                alloys.cite_ew(an), key="EW")
         rep.row("Area ratio A_c/A_a", units.fmt(gov["area_ratio"]),
                 "computed: effective cathode area / effective anode area", key="area_ratio")
         rep.row("Anode current density", units.fmt(gov["anode_current_density_A_m2"], "A/m²"),
@@ -784,9 +786,9 @@ def compute_fastener(fastener, plate, environment, fastener_kind, diameter, coun
     def clean_case(c):
         return {k: v for k, v in c.items() if not k.startswith("_")}
 
-    sources = {"fastener_range": materials.cite_potential(fr),
-               "plate_range": materials.cite_potential(pr),
-               "allowed_delta_E_V": materials.cite_allowed(env),
+    sources = {"fastener_range": alloys.cite_potential(fr),
+               "plate_range": alloys.cite_potential(pr),
+               "allowed_delta_E_V": alloys.cite_allowed(env),
                "i_limit_A_m2": data.cite(env)}
     used = {"fastener_E_noble_V_SCE": pc["ranges"]["fastener"][0],
             "fastener_E_active_V_SCE": pc["ranges"]["fastener"][1],
@@ -801,8 +803,8 @@ def compute_fastener(fastener, plate, environment, fastener_kind, diameter, coun
         an = rows[gov["anode_role"]]
         used.update({"anode_density_g_cm3": an["density_g_cm3"],
                      "anode_equivalent_weight_g_mol": an["equivalent_weight_g_mol"]})
-        sources.update({"anode_density": materials.cite_density(an),
-                        "anode_equivalent_weight": materials.cite_ew(an)})
+        sources.update({"anode_density": alloys.cite_density(an),
+                        "anode_equivalent_weight": alloys.cite_ew(an)})
         if gov["_kinetics"] is not None:
             for role in ("anode", "cathode"):
                 krow = gov["_kinetics"][role]
@@ -834,7 +836,7 @@ def compute_fastener(fastener, plate, environment, fastener_kind, diameter, coun
         "allowance_m": gov["allowance_m"] if gov else allowance,
         "allowance_default": gov["allowance_default"] if gov else None,
         "years_to_allowance": gov["years_to_allowance"] if gov else None,
-        "life_status": gov["life_status"] if gov else rates.LIFE_NO_ATTACK,
+        "life_status": gov["life_status"] if gov else faraday.LIFE_NO_ATTACK,
         "life_text": gov["life_text"] if gov else "no galvanic attack",
         "design_life_yr": design_life_yr,
         "verdict": VERDICT_LABEL[cls], "verdict_class": cls, "verdict_reason": reason,
@@ -867,12 +869,12 @@ CALCULATORS = [
                "joint's size, and the check ranks the couple by potential difference and "
                "by the area rule: a small anode next to a large cathode corrodes fast."),
         fields=[
-            materials.alloy_field("fastener", "Fastener alloy", "S31600",
+            alloys.alloy_field("fastener", "Fastener alloy", "S31600",
                                   help="Generic name or UNS number, e.g. 316 stainless, "
                                        "S31600, carbon steel, galvanized. Add _active "
                                        "(S31600_active) for a stainless in a crevice."),
-            materials.alloy_field("plate", "Plate alloy", "A95083"),
-            materials.environment_field(default="marine_splash"),
+            alloys.alloy_field("plate", "Plate alloy", "A95083"),
+            alloys.environment_field(default="marine_splash"),
             Field("fastener_kind", "Fastener kind", CHOICE, default="bolt",
                   choices=_kind_choices,
                   help="Sets the estimated wetted area and the plate faces it bears on."),
@@ -904,7 +906,7 @@ CALCULATORS = [
                        "diameter (fastener anode) or of the plate thickness (plate anode).",
                   range_note="It must be positive.", **_POS),
             Field("design_life", "Design life", QUANTITY, default="25 year", quantity="time",
-                  unit="year", max=1000 * rates.SECONDS_PER_YEAR,
+                  unit="year", max=1000 * faraday.SECONDS_PER_YEAR,
                   range_note="Between 0 and 1000 years.", **_POS),
             Field("method", "Method", CHOICE, default=METHOD_CATCHMENT,
                   choices=_method_choices),

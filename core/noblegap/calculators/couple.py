@@ -1,4 +1,4 @@
-"""The EMF series at standard conditions: which metal of a pair corrodes.
+"""The EMF-series page: which metal of a pair corrodes at standard conditions.
 
 Sign convention: E° is the standard reduction potential of the metal's
 half-reaction ``M^n+ + n e- = M`` against SHE at 25 °C and unit activity. In a
@@ -10,20 +10,11 @@ cathode.
 
 from __future__ import annotations
 
-from . import data, units
-from .report import Report
-from .schema import CHOICE, Calculator, Field
-
-
-def metal_ids():
-    """Half-reactions usable as metals (hydrogen excluded)."""
-    return [(r["id"], f"{r['metal']} ({r['reaction']})")
-            for r in data.table("half_reactions")]
-
-
-def half_reaction(metal_id, field="metal"):
-    """Return the half-reaction row for ``metal_id`` (ChoiceError if unknown)."""
-    return data.lookup("half_reactions", metal_id, field=field, what="half-reaction")
+from .. import units
+from ..materials import data
+from ..materials.potentials import half_reaction, metal_ids
+from ..report import Report
+from ..schema import CHOICE, Calculator, Field
 
 
 def order(row_a, row_b, E_a, E_b):

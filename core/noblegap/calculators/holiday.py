@@ -5,7 +5,7 @@ The two members and the coating
 ``coated`` and ``other`` are the two members of the couple, with their wetted
 areas ``coated_area`` and ``other_area``; ``coated`` is the member that
 carries the coating as built (the one the holidays were found on). The
-galvanic series (:func:`noblegap.materials.potential_range`, midpoints of the
+galvanic series (:func:`noblegap.alloys.potential_range`, midpoints of the
 ranges in the chosen environment) decides which member is the **anode** (less
 noble: it corrodes) and which the **cathode**. That order is physics, not a
 choice.
@@ -41,12 +41,12 @@ Attack at the holidays
 ----------------------
 Exposed areas: a coated member exposes ``f(t)·A``, a bare one all of ``A``.
 The anode dissolves at the catchment rule's current density
-(:func:`noblegap.rates.catchment_current_density`)
+(:func:`noblegap.faraday.catchment_current_density`)
 
     i_a(t) = i_L · (A_c,exposed + A_a,exposed) / A_a,exposed
 
 with ``i_L`` the environment's oxygen-limited current density, and penetrates
-at Faraday's rate (:func:`noblegap.rates.penetration_rate_m_per_s`). The
+at Faraday's rate (:func:`noblegap.faraday.penetration_rate_m_per_s`). The
 cumulative penetration ``P(t) = ∫ rate dt`` is integrated numerically (pure
 Python, Simpson's rule on a grid refined geometrically where f(t) is small);
 the years to perforation solve ``P(t) = thickness`` of the anode member, up to
@@ -74,11 +74,13 @@ from __future__ import annotations
 
 import math
 
-from . import coatings, data, materials, rates, units
-from .errors import InputError, RangeError
-from .report import Report
-from .schema import CHOICE, INTEGER, NUMBER, QUANTITY, Calculator, Field
-from .svg import Svg, nice_ticks, scale
+from .. import units
+from ..errors import InputError, MissingDataError, RangeError
+from ..materials import alloys, data
+from ..methods import coatings, faraday
+from ..report import Report
+from ..schema import CHOICE, INTEGER, NUMBER, QUANTITY, Calculator, Field
+from ..svg import Svg, nice_ticks, scale
 
 SIDES = ("anode", "cathode", "both", "none")
 SIDE_LABELS = {
@@ -99,8 +101,8 @@ LEGEND = {"anode": "anode coated", "cathode": "cathode coated", "both": "both co
 #: with no initial holidays, so its first breakdown point takes the whole
 #: cathode's current on a vanishing area (the integral of 1/t diverges).
 LIFE_UNBOUNDED = "at_first_breakdown"
-YEAR_S = rates.SECONDS_PER_YEAR
-HORIZON_YR = rates.BEYOND_YEARS
+YEAR_S = faraday.SECONDS_PER_YEAR
+HORIZON_YR = faraday.BEYOND_YEARS
 _GEOMETRIC_STEP = 1.05       # f grows by 5 % per grid step where it is small
 _F_FLOOR = 1e-12             # start of the geometric grid when f0 = 0
 _CATEGORY_NONE = "none"
@@ -134,7 +136,7 @@ def anode_current_density(side, i_limit_A_m2, A_anode_m2, A_cathode_m2, f):
     A_a, A_c = exposed_areas(side, A_anode_m2, A_cathode_m2, f)
     if A_a <= 0:
         return 0.0
-    return rates.catchment_current_density(i_limit_A_m2, A_c, A_a)
+    return faraday.catchment_current_density(i_limit_A_m2, A_c, A_a)
 
 
 class History:
@@ -264,11 +266,11 @@ def scenario(side, *, f0, b_per_yr, i_limit_A_m2, A_anode_m2, A_cathode_m2,
     hist = History(rate, time_grid(f0, b_per_yr, extra=(design_life_yr,)))
     t_perf = hist.time_to(thickness_m)
     if hist.P[-1] == 0:
-        status, text = rates.LIFE_NO_ATTACK, "no attack (no anode metal exposed)"
+        status, text = faraday.LIFE_NO_ATTACK, "no attack (no anode metal exposed)"
     elif t_perf is None:
-        status, text = rates.LIFE_BEYOND, f"beyond {HORIZON_YR:.0f} years"
+        status, text = faraday.LIFE_BEYOND, f"beyond {HORIZON_YR:.0f} years"
     else:
-        status, text = rates.LIFE_FINITE, years_text(t_perf)
+        status, text = faraday.LIFE_FINITE, years_text(t_perf)
     out.update(history=hist, penetration_at_design_life_mm=hist.at(design_life_yr) * 1e3,
                years_to_perforation=t_perf, perforation_status=status,
                perforation_text=text, years_to_half_thickness=hist.time_to(0.5 * thickness_m))
@@ -286,7 +288,7 @@ def years_text(t_yr):
 
 
 def _rank_key(s):
-    order = {rates.LIFE_NO_ATTACK: 0, rates.LIFE_BEYOND: 1, rates.LIFE_FINITE: 2,
+    order = {faraday.LIFE_NO_ATTACK: 0, faraday.LIFE_BEYOND: 1, faraday.LIFE_FINITE: 2,
              LIFE_UNBOUNDED: 3}[s["perforation_status"]]
     years = s["years_to_perforation"] or 0.0
     pen = s["penetration_at_design_life_mm"]
@@ -412,8 +414,8 @@ def roles(coated, other, environment):
         ``anode``, ``cathode`` (alloy ids), ``coated_is_anode``, the ranges and
         midpoints [V vs SCE], ``overlap`` (True when the ranges overlap).
     """
-    rc = materials.potential_range(coated, environment)
-    ro = materials.potential_range(other, environment)
+    rc = alloys.potential_range(coated, environment)
+    ro = alloys.potential_range(other, environment)
     mc, mo = 0.5 * (rc[0] + rc[1]), 0.5 * (ro[0] + ro[1])
     coated_is_anode = mc <= mo
     overlap = not (rc[1] > ro[0] or ro[1] > rc[0])
@@ -432,7 +434,7 @@ def roles(coated, other, environment):
 # --------------------------------------------------------------------------
 
 def _fmt_rate(x):
-    return units.fmt(x, "mm/yr", 3) + f" ({units.fmt(rates.mm_per_yr_to_mpy(x), 'mpy', 3)})"
+    return units.fmt(x, "mm/yr", 3) + f" ({units.fmt(faraday.mm_per_yr_to_mpy(x), 'mpy', 3)})"
 
 
 def compute_holiday(coated, other, environment, coated_side, holiday_count, inspected_area,
@@ -452,23 +454,22 @@ def compute_holiday(coated, other, environment, coated_side, holiday_count, insp
         holiday_diameter=holiday_diameter, exposed_area=exposed_area,
         coating_category=coating_category, breakdown_a=breakdown_a, breakdown_b=breakdown_b)
 
-    env = materials.environment(environment)
+    env = alloys.environment(environment)
     i_L = env["i_limit_A_m2"]
     r = roles(coated, other, environment)
-    anode_row, cathode_row = materials.alloy(r["anode"]), materials.alloy(r["cathode"])
-    coated_row, other_row = materials.alloy(coated), materials.alloy(other)
+    anode_row, cathode_row = alloys.alloy(r["anode"]), alloys.alloy(r["cathode"])
+    coated_row, other_row = alloys.alloy(coated), alloys.alloy(other)
     A_an = coated_area if r["coated_is_anode"] else other_area
     A_ca = other_area if r["coated_is_anode"] else coated_area
     if r["delta_E_V"] == 0:
         A_ca = 0.0   # same potential range: no galvanic cathode, each metal on its own
     if anode_row["equivalent_weight_g_mol"] is None or anode_row["density_g_cm3"] is None:
-        from .errors import MissingDataError
         raise MissingDataError(f"{anode_row['name']} has no equivalent weight or density "
                                "in data/alloys.csv, so its penetration rate cannot be "
                                "computed.", field="coated" if r["coated_is_anode"] else "other",
                                value=r["anode"])
-    # Faraday's law is linear in i: the rate per A/m², computed once by rates.py.
-    k_m_per_yr = rates.penetration_rate_m_per_s(
+    # Faraday's law is linear in i: the rate per A/m², computed once by faraday.py.
+    k_m_per_yr = faraday.penetration_rate_m_per_s(
         1.0, anode_row["equivalent_weight_g_mol"], anode_row["density_g_cm3"]) * YEAR_S
 
     common = dict(f0=f0, b_per_yr=b_yr, i_limit_A_m2=i_L, A_anode_m2=A_an,
@@ -495,8 +496,8 @@ def compute_holiday(coated, other, environment, coated_side, holiday_count, insp
         a_one = math.pi * insp["holiday_diameter_m"] ** 2 / 4.0
         scale_up = coated_area / insp["inspected_area_m2"]
         A_each = a_one * scale_up
-        i_many = rates.catchment_current_density(i_L, A_ca, n * A_each) if A_each > 0 else 0
-        i_one = rates.catchment_current_density(i_L, A_ca, A_each) if A_each > 0 else 0
+        i_many = faraday.catchment_current_density(i_L, A_ca, n * A_each) if A_each > 0 else 0
+        i_one = faraday.catchment_current_density(i_L, A_ca, A_each) if A_each > 0 else 0
         single = {"holidays_on_anode": round(n * scale_up, 3),
                   "rate_each_of_many_mm_per_yr": k_m_per_yr * i_many * 1e3,
                   "rate_single_mm_per_yr": k_m_per_yr * i_one * 1e3}
@@ -547,13 +548,13 @@ def compute_holiday(coated, other, environment, coated_side, holiday_count, insp
         "anode_current_density_A_m2": sel["i_initial_A_m2"],
         "anode_current_density_design_life_A_m2": sel["i_design_life_A_m2"],
         "penetration_mm_per_yr_initial": sel["initial_rate_mm_per_yr"],
-        "penetration_mpy_initial": rates.mm_per_yr_to_mpy(sel["initial_rate_mm_per_yr"]),
+        "penetration_mpy_initial": faraday.mm_per_yr_to_mpy(sel["initial_rate_mm_per_yr"]),
         "penetration_mm_per_yr_design_life": sel["rate_at_design_life_mm_per_yr"],
         "penetration_at_design_life_mm": sel["penetration_at_design_life_mm"],
         "years_to_perforation": sel["years_to_perforation"],
         "perforation_status": sel["perforation_status"],
         "perforation_text": sel["perforation_text"],
-        "perforation_beyond_1000_years": sel["perforation_status"] == rates.LIFE_BEYOND,
+        "perforation_beyond_1000_years": sel["perforation_status"] == faraday.LIFE_BEYOND,
         "reinspect_before_years": sel["years_to_half_thickness"],
         "scenarios": scen_rows,
         "timeline": timeline,
@@ -588,7 +589,7 @@ def _report(v):
     th = units.fmt(thickness * 1e3, "mm", 3)
 
     what = SIDE_PHRASES[side]
-    if sel["perforation_status"] == rates.LIFE_FINITE:
+    if sel["perforation_status"] == faraday.LIFE_FINITE:
         verdict_cls = "avoid" if sel["years_to_perforation"] < tf_yr else "caution"
         head = (f"{anode_row['name']} is the anode. With {what}, the {th} wall perforates "
                 f"at the holidays in {sel['perforation_text']}"
@@ -633,7 +634,7 @@ def _report(v):
         rep.warn("The two members' galvanic-series ranges overlap: which one is the anode "
                  "depends on the actual surfaces. Measure both potentials in the service "
                  "water before relying on the ranking.")
-    for w in materials.applicability(v["environment"]):
+    for w in alloys.applicability(v["environment"]):
         rep.warn(w)
 
     rep.para("Inspectors: with the cathode area fixed, a single holiday in the anode's "
@@ -691,7 +692,7 @@ def _report(v):
             "computed: A_a = f(t)·A_anode when the anode is coated, else A_anode")
     rep.row("Anode current density at the holidays, initial",
             units.fmt(sel["i_initial_A_m2"], "A/m²", 3)
-            + f" ({units.fmt(rates.A_m2_to_uA_cm2(sel['i_initial_A_m2']), 'µA/cm²', 3)})",
+            + f" ({units.fmt(faraday.A_m2_to_uA_cm2(sel['i_initial_A_m2']), 'µA/cm²', 3)})",
             "computed: i_a = i_L·(A_c + A_a)/A_a (catchment rule)",
             key="anode_current_density_A_m2")
     rep.row("Local penetration rate, initial", _fmt_rate(sel["initial_rate_mm_per_yr"]),
@@ -707,17 +708,17 @@ def _report(v):
             "computed: P(t) = thickness", key="years_to_perforation")
     rep.row(f"Equivalent weight of {anode_row['name']}",
             f"{anode_row['equivalent_weight_g_mol']:g} g/mol",
-            materials.cite_ew(anode_row) or "not tabulated")
+            alloys.cite_ew(anode_row) or "not tabulated")
     rep.row(f"Density of {anode_row['name']}", f"{anode_row['density_g_cm3']:g} g/cm³",
-            materials.cite_density(anode_row))
+            alloys.cite_density(anode_row))
     rep.row(f"Galvanic-series range of {coated_row['name']}",
             f"{units.fmt(r['range_coated_V_SCE'][1], 'V', 3)} to "
             f"{units.fmt(r['range_coated_V_SCE'][0], 'V', 3)} vs SCE",
-            materials.cite_potential(coated_row))
+            alloys.cite_potential(coated_row))
     rep.row(f"Galvanic-series range of {other_row['name']}",
             f"{units.fmt(r['range_other_V_SCE'][1], 'V', 3)} to "
             f"{units.fmt(r['range_other_V_SCE'][0], 'V', 3)} vs SCE",
-            materials.cite_potential(other_row))
+            alloys.cite_potential(other_row))
 
     # Four scenarios
     rows = []
@@ -790,7 +791,7 @@ def _report(v):
         rep.para("Repair the holidays found before immersion: every holiday left on the "
                  f"anode carries its share of the cathode's current (initial rate "
                  f"{_fmt_rate(sel['initial_rate_mm_per_yr'])} in the selected scenario).")
-    if sel["perforation_status"] in (rates.LIFE_FINITE, LIFE_UNBOUNDED) and (
+    if sel["perforation_status"] in (faraday.LIFE_FINITE, LIFE_UNBOUNDED) and (
             sel["years_to_perforation"] is None or sel["years_to_perforation"] < tf_yr):
         rep.para(f"Consider cathodic protection: the selected scenario perforates "
                  f"{sel['perforation_text']}, inside the {life} design life. A first "
@@ -894,12 +895,12 @@ CALCULATORS = [
                "screen bolted to a nickel-aluminium bronze pump casing, 12 holidays found "
                "on the 1.5 m² inspected."),
         fields=[
-            materials.alloy_field("coated", "Coated member", "carbon_steel",
+            alloys.alloy_field("coated", "Coated member", "carbon_steel",
                                   help="The member that carries the coating as built "
                                        "(generic name or UNS number)."),
-            materials.alloy_field("other", "Other member", "C95800",
+            alloys.alloy_field("other", "Other member", "C95800",
                                   help="The member it is joined to."),
-            materials.environment_field(),
+            alloys.environment_field(),
             Field("coated_side", "Coated side (highlighted scenario)", CHOICE,
                   default="anode", choices=SIDE_CHOICES,
                   help=("Which member of the couple is coated in the highlighted scenario. "
