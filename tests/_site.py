@@ -1,6 +1,8 @@
-"""The built site for tests: build once per session, serve on loopback.
+"""The built site for the delivery, parity and browser tests: build once per
+session, serve on loopback. (tests/core/ never uses this: the core's tests
+never build the site.)
 
-    from tests._site import ensure_site, serve_site
+    from _site import ensure_site, serve_site
     site = ensure_site()            # Path to site/, rebuilt only if an input changed
     with serve_site() as base_url:  # "http://127.0.0.1:PORT/"
         ...
@@ -12,7 +14,6 @@ keeps its own imports of noblegap untouched.
 from __future__ import annotations
 
 import contextlib
-import importlib.util
 import subprocess
 import sys
 import threading
@@ -20,19 +21,22 @@ from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
 SITE = ROOT / "site"
+if str(ROOT) not in sys.path:
+    sys.path.insert(0, str(ROOT))
+
+from site_build import offline, serve  # noqa: E402
+from site_build.__main__ import build_options  # noqa: E402
 
 _checked = False
 
 
-def build_module():
-    """build.py, imported as a module (it imports nothing of noblegap at import)."""
-    mod = sys.modules.get("noblegap_build")
-    if mod is None:
-        spec = importlib.util.spec_from_file_location("noblegap_build", ROOT / "build.py")
-        mod = importlib.util.module_from_spec(spec)
-        sys.modules["noblegap_build"] = mod
-        spec.loader.exec_module(mod)
-    return mod
+def build_site(site: Path, *args: str) -> Path:
+    """``python3 build.py --site SITE ARGS`` (a subprocess); returns ``site``."""
+    proc = subprocess.run([sys.executable, str(ROOT / "build.py"), "--site", str(site), *args], cwd=ROOT,
+                          capture_output=True, text=True)
+    if proc.returncode != 0:
+        raise RuntimeError(f"build.py {' '.join(args)} failed:\n{proc.stdout}\n{proc.stderr}")
+    return site
 
 
 def ensure_site() -> Path:
@@ -40,7 +44,7 @@ def ensure_site() -> Path:
     global _checked
     if _checked and SITE.exists():
         return SITE
-    if not build_module().site_is_current(SITE):
+    if not offline.site_is_current(SITE, build_options()):
         proc = subprocess.run([sys.executable, str(ROOT / "build.py")], cwd=ROOT,
                               capture_output=True, text=True)
         if proc.returncode != 0:
@@ -51,13 +55,13 @@ def ensure_site() -> Path:
 
 @contextlib.contextmanager
 def serve_site(site: Path | None = None):
-    """Serve the built site on 127.0.0.1 (a free port); yields the base URL.
+    """Serve a built site on 127.0.0.1 (a free port); yields the base URL.
 
     The server sends the same Content-Security-Policy header as
     ``python3 build.py --serve``.
     """
     site = site or ensure_site()
-    server = build_module().make_server(site, port=0)
+    server = serve.make_server(site, port=0)
     thread = threading.Thread(target=server.serve_forever, daemon=True)
     thread.start()
     try:

@@ -235,8 +235,12 @@ def symbol(unit):
 def fmt(value, unit="", sig=3):
     """Format a float with ``sig`` significant figures and a unit symbol.
 
+    Negative numbers get the typographic minus sign (U+2212), as printed.
+
     >>> fmt(-0.80123, "V")
-    '-0.801 V'
+    '\u22120.801 V'
+    >>> fmt(1234.56, "mm")
+    '1235 mm'
     """
     if value is None:
         return "—"

@@ -3,6 +3,7 @@
 // moves inputs and renders the core's "display" structure with textContent.
 import { registerServiceWorker } from "./register-sw.js";
 import { worker, takeEarly } from "./boot.js";
+import NAMES from "./engine/names.json" with { type: "json" };
 
 const schema = JSON.parse(document.getElementById("schema").textContent);
 const form = document.getElementById("inputs");
@@ -72,9 +73,9 @@ worker.onerror = (ev) => {
 };
 worker.onmessage = (ev) => {
   const msg = ev.data || {};
-  if (msg.type === "progress") return showProgress(msg);
-  if (msg.type === "ready") return engineReady(msg);
-  if (msg.type === "fatal") return engineFailed(msg.message);
+  if (msg.type === NAMES.messages.progress) return showProgress(msg);
+  if (msg.type === NAMES.messages.ready) return engineReady(msg);
+  if (msg.type === NAMES.messages.fatal) return engineFailed(msg.message);
   if (msg.id !== undefined && waiting.has(msg.id)) {
     const resolve = waiting.get(msg.id);
     waiting.delete(msg.id);
@@ -123,7 +124,7 @@ function engineFailed(message) {
 let early = null;
 function sendEarly() {
   const inputs = readInputs();
-  early = { key: JSON.stringify(inputs), reply: call("run", { calc: schema.name, inputs }) };
+  early = { key: JSON.stringify(inputs), reply: call(NAMES.calls.run, { calc: schema.name, inputs }) };
 }
 
 async function compute() {
@@ -137,7 +138,7 @@ async function compute() {
   const inputs = readInputs();
   const sent = early && early.key === JSON.stringify(inputs) ? early.reply : null;
   early = null;
-  const reply = await (sent ?? call("run", { calc: schema.name, inputs }));
+  const reply = await (sent ?? call(NAMES.calls.run, { calc: schema.name, inputs }));
   busy = false;
   if (pending) {
     compute();

@@ -4,7 +4,7 @@
 // imports have been fetched. app.js imports it too: a module runs once per
 // page, so there is one worker whichever script gets here first. The
 // worker's messages are kept until app.js takes them with takeEarly().
-export const worker = new Worker(new URL("./worker.js", import.meta.url), { type: "module" });
+export const worker = new Worker(new URL("./engine/worker.js", import.meta.url), { type: "module" });
 const kept = [];
 const keep = (event) => kept.push(event);
 worker.addEventListener("message", keep);

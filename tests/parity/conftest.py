@@ -4,58 +4,58 @@ import json
 import os
 import shutil
 import subprocess
-from pathlib import Path
 
 import pytest
 
-from _site import ROOT, ensure_site
-
-CASES_FILE = Path(__file__).resolve().parent / "cases.json"
+from _site import ROOT, build_site, ensure_site
 
 
 def load_cases():
-    """cases.json, then each calculator's own example (as describe() gives it)."""
-    import noblegap.api as api
+    """core/noblegap/cases.json, then each calculator's own example (engine_hooks.cases)."""
+    from noblegap import engine_hooks
 
-    cases = json.loads(CASES_FILE.read_text())
-    for calc in api.describe()["calculators"]:
-        cases.append({"calc": calc["name"], "inputs": calc.get("example", {}), "example": True})
-    return cases
+    return engine_hooks.cases()
 
 
-MODES = ("normal", "snapshot")
+# normal and snapshot: the two starts of the built site/; no-faststart: a
+# site built with --no-faststart (its only start is the normal one).
+MODES = ("normal", "snapshot", "no-faststart")
 
 
-def run_in_pyodide(cases, mode, tmp_dir):
-    """tools/pyodide_run.mjs --mode MODE over ``cases``; its JSON report."""
+def run_in_pyodide(cases, mode, tmp_dir, site=None):
+    """site_build/pyodide_run.mjs --mode MODE over ``cases``; its JSON report."""
     if shutil.which("node") is None:
         if os.environ.get("CI"):
             pytest.fail("node is required for the parity test in CI")
         pytest.skip("node is not installed")
-    site = ensure_site()
+    site = site or ensure_site()
     cases_file = tmp_dir / f"cases-{mode}.json"
     cases_file.write_text(json.dumps(cases))
     proc = subprocess.run(
-        ["node", str(ROOT / "tools" / "pyodide_run.mjs"), "--mode", mode, str(site), str(cases_file)],
+        ["node", str(ROOT / "site_build" / "pyodide_run.mjs"), "--mode", mode, str(site), str(cases_file)],
         capture_output=True, text=True, timeout=300,
     )
     if proc.returncode != 0:
-        pytest.fail(f"tools/pyodide_run.mjs --mode {mode} failed ({proc.returncode}):\n{proc.stderr[-4000:]}")
+        pytest.fail(f"site_build/pyodide_run.mjs --mode {mode} failed ({proc.returncode}):\n{proc.stderr[-4000:]}")
     return json.loads(proc.stdout.strip().splitlines()[-1])
 
 
 @pytest.fixture(scope="session")
 def pyodide_runs(tmp_path_factory):
     """Every case of load_cases() run inside Pyodide under Node, in file order,
-    once per start mode: ``normal`` (loadPackage from the lock file) and
-    ``snapshot`` (the build's memory snapshot restored).
+    once per start: ``normal`` (loadPackage from the lock file), ``snapshot``
+    (the build's memory snapshot restored) and ``no-faststart`` (the normal
+    start of a site built without the fast start).
 
-    Uses tools/pyodide_run.mjs, which loads site/ through the same
-    static/engine.mjs as the browser worker.
+    Uses site_build/pyodide_run.mjs, which loads a built site through the
+    same static/engine/ modules as the browser worker.
     """
     tmp = tmp_path_factory.mktemp("parity")
     cases = load_cases()
-    return {mode: run_in_pyodide(cases, mode, tmp) for mode in MODES}
+    runs = {mode: run_in_pyodide(cases, mode, tmp) for mode in ("normal", "snapshot")}
+    plain = build_site(tmp / "site-no-faststart", "--no-faststart", "--offline")
+    runs["no-faststart"] = run_in_pyodide(cases, "normal", tmp, site=plain)
+    return runs
 
 
 @pytest.fixture(scope="session")

@@ -114,7 +114,7 @@ def fastener_area_estimate_m2(kind, diameter_m):
         area when known).
 
     >>> round(fastener_area_estimate_m2("bolt", 0.010) * 1e6)   # mm²
-    1703
+    1702
     """
     d = diameter_m
     if kind == "bolt":

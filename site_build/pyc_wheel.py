@@ -1,6 +1,6 @@
 """Turn a pure-Python wheel into a byte-compiled one, inside Pyodide.
 
-Run by ``tools/pyodide_compile.mjs`` in Pyodide's own interpreter, because a
+Run by ``site_build/pyodide_compile.mjs`` in Pyodide's own interpreter, because a
 ``.pyc`` file is only valid for the exact Python minor version that wrote it
 and no host CPython matches Pyodide's. Each ``.py`` module is replaced by a
 sourceless ``.pyc`` beside it (the layout Pyodide uses for its own packages),

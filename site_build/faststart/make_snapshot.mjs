@@ -1,19 +1,20 @@
 // Make the engine's Pyodide memory snapshot at build time, under Node.
 //
-// usage: node tools/make_snapshot.mjs JOB.json
+// usage: node site_build/faststart/make_snapshot.mjs JOB.json
 //
 // JOB.json: {"site_dir": "site.tmp", "files_dir": "...", "files": ["pint/__init__.pyc", ...],
 //            "memory_out": ".../memory.bin", "base_out": ".../base.bin", "gaps_out": ".../gaps.bin"}
 //
 // Boots the site's own Pyodide (site_dir/pyodide) with the private option
 // _makeSnapshot, writes the package files (the lock's wheels, unpacked and
-// checked by build.py) into site-packages with the same installFiles() the
-// browser uses when it restores the snapshot, imports and warms noblegap (WARM_PY in
-// static/engine.mjs), and saves pyodide.makeMemorySnapshot() to memory_out.
-// base_out gets the heap the runtime's data segments make (dataSegmentsImage
-// in static/restore.mjs) and gaps_out the ranges between them (the gap list
-// the browser zeroes in its freshly instantiated memory to get the same
-// base): build.py stores the snapshot as a delta against the base.
+// checked by snapshot.py) into site-packages with the same installFiles()
+// the browser uses when it restores the snapshot, runs
+// noblegap.engine_hooks.warm_up(), and saves pyodide.makeMemorySnapshot()
+// to memory_out. base_out gets the heap the runtime's data segments make
+// (dataSegmentsImage in static/engine/faststart/restore.mjs) and gaps_out
+// the ranges between them (the gap list the browser zeroes in its freshly
+// instantiated memory to get the same base): container.py stores the
+// snapshot as a delta against the base.
 // loadPackage is not used: it leaves JavaScript objects behind that a
 // memory snapshot cannot hold.
 //
@@ -32,8 +33,12 @@ const job = JSON.parse(await readFile(process.argv[2], "utf8"));
 const site = resolve(job.site_dir);
 const t0 = performance.now();
 const { loadPyodide, version } = await import(pathToFileURL(join(site, "pyodide", "pyodide.mjs")).href);
-const { installFiles, STDLIB_FILE, WARM_PY } = await import(pathToFileURL(join(site, "static", "engine.mjs")).href);
-const { baseFromMemory, captureRuntimeWasm, dataSegmentsGaps, dataSegmentsImage, encodeRuns } = await import(pathToFileURL(join(site, "static", "restore.mjs")).href);
+const engineDir = join(site, "static", "engine");
+const { NAMES, runtimeOptions } = await import(pathToFileURL(join(engineDir, "engine.mjs")).href);
+const { installFiles } = await import(pathToFileURL(join(engineDir, "faststart", "start.mjs")).href);
+const { baseFromMemory, captureRuntimeWasm, dataSegmentsGaps, dataSegmentsImage, encodeRuns } = await import(
+  pathToFileURL(join(engineDir, "faststart", "restore.mjs")).href
+);
 const files = await Promise.all(
   job.files.map(async (path) => [path, new Uint8Array(await readFile(join(job.files_dir, path)))]),
 );
@@ -43,11 +48,12 @@ let gaps = null;
 let fsInitError = null;
 const capture = captureRuntimeWasm();
 const py = await loadPyodide({
-  indexURL: join(site, "pyodide") + "/",
-  lockFileURL: join(site, "packages", "noblegap-lock.json"),
-  stdLibURL: join(site, "pyodide", STDLIB_FILE),
-  stdout: (msg) => console.error(msg),
-  stderr: (msg) => console.error(msg),
+  ...runtimeOptions({
+    indexURL: join(site, NAMES.pyodide_dir) + "/",
+    lockFileURL: join(site, NAMES.packages_dir, NAMES.lock_file),
+    stdout: (msg) => console.error(msg),
+    stderr: (msg) => console.error(msg),
+  }),
   _makeSnapshot: true,
   // (Pyodide does not await this hook's errors: they are kept and thrown below)
   fsInit: async (FS, info) => {
@@ -76,27 +82,21 @@ const booted = performance.now() - t0;
 // After the boot, not in fsInit: files present while Pyodide starts are
 // registered as loaded packages, which leaves objects a snapshot cannot hold.
 installFiles(py.FS, sitePackages, files);
-py.runPython("import importlib; importlib.invalidate_caches()");
-py.runPython(WARM_PY);
+const importlib = py.pyimport("importlib");
+importlib.invalidate_caches();
+importlib.destroy();
+const hooks = py.pyimport(NAMES.hooks_module);
+hooks.warm_up();
 // The package files whose modules are imported now: restored with the
-// memory, never read again (build.py leaves them out of the container).
-const imported = JSON.parse(
-  py.runPython(`
-import json, sys
-_prefix = ${JSON.stringify(sitePackages + "/")}
-_out = sorted({m.__spec__.origin[len(_prefix):] for m in list(sys.modules.values())
-               if getattr(m, "__spec__", None) is not None and isinstance(m.__spec__.origin, str)
-               and m.__spec__.origin.startswith(_prefix)})
-_json = json.dumps(_out)
-del _prefix, _out
-_json
-`),
-);
-py.runPython("del _json");
-py.runPython("import gc; gc.collect()");
+// memory, never read again (container.py leaves them out).
+const imported = JSON.parse(hooks.imported_package_files(sitePackages));
+hooks.destroy();
+const gc = py.pyimport("gc");
+gc.collect();
+gc.destroy();
 const zeroFilled = zeroFreeMemory(py._module);
 const warmed = performance.now() - t0;
-const python = py.runPython("import sys; '.'.join(map(str, sys.version_info[:3]))");
+const python = pythonVersion(py);
 const memory = py.makeMemorySnapshot();
 await writeFile(job.memory_out, memory);
 process.stdout.write(
@@ -152,4 +152,14 @@ function zeroFreeMemory(M) {
   // grow the memory, the memory stays larger: all zeros, left out of the
   // container, and only the snapshot's memory size shows it.
   return { bytes, blocks: held.length, heap_grown_by: M.HEAPU8.length - heapBefore, stack: [stackEnd, stackPointer, M._emscripten_stack_get_base() >>> 0, stackBytes] };
+}
+
+// "3.14.2": the interpreter's version, every proxy destroyed.
+function pythonVersion(py) {
+  const sys = py.pyimport("sys");
+  const info = sys.version_info;
+  const text = `${info.major}.${info.minor}.${info.micro}`;
+  info.destroy();
+  sys.destroy();
+  return text;
 }

@@ -1,22 +1,22 @@
 // Which members of Pyodide's python_stdlib.zip the site can ever import.
 //
-// usage: node tools/stdlib_closure.mjs PYODIDE_DIR LOCK_FILE CASES.json
+// usage: node site_build/faststart/stdlib_closure.mjs PYODIDE_DIR LOCK_FILE
 //
 // Boots the pinned Pyodide from PYODIDE_DIR (the npm package's files, full
 // standard library), loads the engine's packages from LOCK_FILE the normal
 // way (every wheel checked against the lock's sha256), then runs
-// tools/stdlib_closure.py, which imports and exercises the engine and
+// stdlib_closure.py (beside this file), which imports and exercises the engine and
 // follows every import statement to a fixed point. Prints its JSON.
 import { createHash } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 
-if (process.argv.length !== 5) {
-  console.error("usage: node tools/stdlib_closure.mjs PYODIDE_DIR LOCK_FILE CASES.json");
+if (process.argv.length !== 4) {
+  console.error("usage: node site_build/faststart/stdlib_closure.mjs PYODIDE_DIR LOCK_FILE");
   process.exit(2);
 }
-const [pyodideDir, lockFile, casesFile] = process.argv.slice(2).map((p) => resolve(p));
+const [pyodideDir, lockFile] = process.argv.slice(2).map((p) => resolve(p));
 const lock = JSON.parse(await readFile(lockFile, "utf8"));
 for (const pkg of Object.values(lock.packages)) {
   const data = await readFile(join(dirname(lockFile), pkg.file_name));
@@ -39,7 +39,6 @@ if (failures.length) {
   console.error(failures.join("\n"));
   process.exit(1);
 }
-py.globals.set("CASES_JSON", await readFile(casesFile, "utf8"));
 const here = dirname(fileURLToPath(import.meta.url));
 let out = "";
 py.setStdout({ batched: (line) => (out += line + "\n") });

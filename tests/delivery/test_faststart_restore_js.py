@@ -1,6 +1,7 @@
-"""static/restore.mjs under Node, against independent Python code: its data
-segment reader (the base of the snapshot) and its reading of a container
-written by build.py (the files, and Pyodide's memory rebuilt)."""
+"""static/engine/faststart/restore.mjs (as built into site/) under Node,
+against independent Python code: its data segment reader (the base of the
+snapshot) and its reading of a container written by
+site_build/faststart/container.py (the files, and Pyodide's memory rebuilt)."""
 
 from __future__ import annotations
 
@@ -13,11 +14,8 @@ from pathlib import Path
 
 import pytest
 
-from _site import build_module
-
-build = build_module()
-ROOT = Path(__file__).resolve().parent.parent
-RESTORE = ROOT / "site_src" / "static" / "restore.mjs"
+from _site import ROOT, ensure_site
+from site_build.faststart.container import SNAPSHOT_PAGE, snapshot_container
 
 
 def node(script: str, tmp_path: Path) -> dict:
@@ -25,8 +23,11 @@ def node(script: str, tmp_path: Path) -> dict:
         if os.environ.get("CI"):
             pytest.fail("node is required in CI")
         pytest.skip("node is not installed")
+    restore = ensure_site() / "static" / "engine" / "faststart" / "restore.mjs"
+    names = ensure_site() / "static" / "engine" / "names.json"
     path = tmp_path / "probe.mjs"
-    path.write_text(f'import * as R from {json.dumps(RESTORE.as_uri())};\n' + script)
+    path.write_text(f'import * as R from {json.dumps(restore.as_uri())};\n'
+                    f'import NAMES from {json.dumps(names.as_uri())} with {{ type: "json" }};\n' + script)
     proc = subprocess.run(["node", str(path)], capture_output=True, text=True, timeout=120)
     assert proc.returncode == 0, proc.stderr
     return json.loads(proc.stdout.strip().splitlines()[-1])
@@ -43,13 +44,9 @@ console.log(JSON.stringify({size: image.length, sha: await R.sha256Hex(image),
 
 
 def test_data_segments_image_of_the_pinned_runtime(tmp_path):
-    from test_build import _wasm_data_segments
+    from test_faststart import _wasm_data_segments
 
-    wasm_path = ROOT / "site" / "pyodide" / "pyodide.asm.wasm"
-    if not wasm_path.exists():
-        from _site import ensure_site
-
-        ensure_site()
+    wasm_path = ensure_site() / "pyodide" / "pyodide.asm.wasm"
     wasm = wasm_path.read_bytes()
     segments = _wasm_data_segments(wasm)
     end = max(offset + len(chunk) for offset, chunk in segments)
@@ -73,7 +70,7 @@ const data = new Uint8Array(readFileSync(new URL("container.bin", import.meta.ur
 // a runtime's memory: the base with junk in its gaps, and more memory after it
 const live = new Uint8Array(readFileSync(new URL("live.bin", import.meta.url)));
 const size = Number(process.env.MEMORY_SIZE);
-const parsed = R.parseSnapshot(data, size);
+const parsed = R.parseSnapshot(data, size, NAMES.faststart);
 const target = new Uint8Array(size);
 R.applyPages(parsed, target);
 const base = R.baseFromMemory(live.buffer, parsed);
@@ -92,7 +89,7 @@ for (const [name, bytes, memorySize] of [
   ["truncated", data.subarray(0, data.length - 100), size],
   ["bad path", relabel(data, "ab/x.py", "../x.py"), size],
 ]) {
-  try { R.parseSnapshot(bytes, memorySize); errors[name] = null; } catch (err) { errors[name] = err.message; }
+  try { R.parseSnapshot(bytes, memorySize, NAMES.faststart); errors[name] = null; } catch (err) { errors[name] = err.message; }
 }
 const runs = [[0, 3], [10, 4096], [5000, 5001]];
 const roundTrip = R.decodeRuns(R.encodeRuns(runs), 6000);
@@ -105,7 +102,7 @@ def test_apply_snapshot_rebuilds_the_memory_build_py_packed(tmp_path):
     import random
 
     rng = random.Random(7)
-    page = build.SNAPSHOT_PAGE
+    page = SNAPSHOT_PAGE
     # a base of 5 pages: "segments" with gaps between them
     base = bytearray(5 * page)
     gaps, at = [], 0
@@ -136,7 +133,7 @@ def test_apply_snapshot_rebuilds_the_memory_build_py_packed(tmp_path):
                     break
         end = stop
     files = {"ab/x.py": b"print(1)\n", "ab/y.pyc": b"imported", "ab/z.csv": b"a,b\n1,2\n"}
-    data = build._snapshot_container(files, memory, base, bytes(encoded), {"version": "0"}, imported=["ab/y.pyc"])
+    data = snapshot_container(files, memory, base, bytes(encoded), {"version": "0"}, imported=["ab/y.pyc"])
     (tmp_path / "container.bin").write_bytes(data)
     live = bytearray(base) + bytes(rng.randrange(256) for _ in range(3 * page))
     for start, stop in gaps:                    # what a runtime may write before Python starts

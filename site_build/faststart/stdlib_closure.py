@@ -1,10 +1,11 @@
-# Run inside Pyodide by tools/stdlib_closure.mjs, after the engine's packages
+# Run inside Pyodide by stdlib_closure.mjs (beside this file), after the engine's packages
 # are loaded the normal way: which members of Pyodide's python_stdlib.zip can
 # the site ever import?
 #
 # Start from every module imported by then (Pyodide's own start, loading the
 # packages, importing noblegap, building the unit registry, describing and
-# running every calculator's example and every case in CASES) and follow
+# running every calculator's example and every case of
+# noblegap/cases.json, through noblegap.engine_hooks) and follow
 # every import statement in their code, including those inside functions
 # and those behind try/except, to a fixed point; string constants handed to
 # importlib.import_module or __import__ count as imports too. The result is
@@ -22,8 +23,6 @@ import sys
 import types
 import zipfile
 
-CASES = json.loads(CASES_JSON)  # noqa: F821 (set by the caller)
-
 # The codecs Python looks up by name (codecs.lookup imports
 # encodings.<name>): the Unicode ones and Latin-1, whatever else is
 # imported already.
@@ -35,13 +34,11 @@ EXTRA = [
 ]
 
 import noblegap.api as _api  # noqa: E402
-import noblegap.units as _units  # noqa: E402
+import noblegap.engine_hooks as _hooks  # noqa: E402
 
-_units.registry()
-for _calc in _api.describe()["calculators"]:
-    _api.describe(_calc["name"])
-    json.dumps(_api.run(_calc["name"], _calc.get("example", {})))
-for _case in CASES:
+_hooks.warm_up()
+_hooks.after_restore()
+for _case in _hooks.cases():
     json.dumps(_api.run(_case["calc"], _case["inputs"]))
 
 STDLIB = next(p for p in sys.path if p.endswith(".zip"))

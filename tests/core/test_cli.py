@@ -6,7 +6,7 @@ import subprocess
 import sys
 from pathlib import Path
 
-CORE = str(Path(__file__).resolve().parents[1] / "core")
+CORE = str(Path(__file__).resolve().parents[2] / "core")
 
 
 def _run(*args):

@@ -1,17 +1,20 @@
-"""The built site is complete, integrity-checked and self-contained."""
+"""The fast start in the built site: the snapshot's sidecar, its container,
+its base, and the trimmed standard library (site_build/faststart/)."""
 
 import hashlib
-import html
 import json
-import re
-import urllib.request
 import zipfile
 
 import pytest
 
-from _site import build_module, ensure_site, serve_site
-
-build = build_module()
+from _site import ensure_site
+from site_build import paths, runtime
+from site_build.common import BuildError
+from site_build.faststart import REVIEWED, build_id
+from site_build.faststart.container import SNAPSHOT_FORMAT, SNAPSHOT_MAGIC, SNAPSHOT_PAGE, snapshot_container
+from site_build.faststart.snapshot import SNAPSHOT_INFO
+from site_build.faststart.stdlib import STDLIB_FILE
+from site_build.names import NAMES, read_names
 
 
 @pytest.fixture(scope="module")
@@ -21,171 +24,50 @@ def site():
 
 @pytest.fixture(scope="module")
 def manifest(site):
-    return json.loads((site / build.MANIFEST_NAME).read_text())
+    return json.loads((site / paths.MANIFEST_NAME).read_text())
 
 
 @pytest.fixture(scope="module")
 def lock(site):
-    return json.loads((site / build.PACKAGES_DIR / build.LOCK_NAME).read_text())
+    return json.loads((site / paths.PACKAGES_DIR / NAMES["lock_file"]).read_text())
 
 
 def sha256(path):
     return hashlib.sha256(path.read_bytes()).hexdigest()
 
 
-def test_site_is_built_from_current_inputs(site):
-    assert build.site_is_current(site)
-
-
-def test_every_lock_entry_matches_its_file(site, lock):
-    assert lock["packages"], "the lock file lists no packages"
-    for name, entry in lock["packages"].items():
-        assert "://" not in entry["file_name"], f"{name} would be fetched from another origin"
-        path = site / build.PACKAGES_DIR / entry["file_name"]
-        assert path.is_file(), entry["file_name"]
-        assert sha256(path) == entry["sha256"], entry["file_name"]
-        for dep in entry["depends"]:
-            assert dep in lock["packages"], f"{name} depends on {dep}, which is not in the lock"
-
-
-def test_engine_package_depends_on_pint(lock):
-    assert "pint" in lock["packages"]["noblegap"]["depends"]
-
-
-def test_wheels_are_byte_compiled_and_complete(site, lock):
-    for entry in lock["packages"].values():
-        with zipfile.ZipFile(site / build.PACKAGES_DIR / entry["file_name"]) as zf:
-            names = zf.namelist()
-        assert not [n for n in names if n.endswith(".py")], entry["file_name"]
-        assert [n for n in names if n.endswith(".pyc")], entry["file_name"]
-    with zipfile.ZipFile(site / build.PACKAGES_DIR / lock["packages"]["noblegap"]["file_name"]) as zf:
-        packaged = {n.rsplit("/", 1)[1] for n in zf.namelist() if n.startswith("noblegap/_data/")}
-    assert packaged == {p.name for p in build.DATA.glob("*.csv")}
-
-
-def test_core_wheel_is_reproducible():
-    first = build.build_core_wheel().read_bytes()
-    second = build.build_core_wheel().read_bytes()
-    assert first == second
-
-
-def test_build_manifest_lists_every_file(site, manifest):
-    on_disk = {
-        p.relative_to(site).as_posix()
-        for p in site.rglob("*")
-        if p.is_file() and p.name not in (build.MANIFEST_NAME, build.SW_NAME)
-    }
-    assert set(manifest["files"]) == on_disk
-    for rel, meta in manifest["files"].items():
-        path = site / rel
-        assert path.stat().st_size == meta["size"], rel
-        assert sha256(path) == meta["sha256"], rel
-
-
-def test_service_worker_precaches_every_file(site, manifest):
-    text = (site / build.SW_NAME).read_text()
-    assert build.SW_MARKER not in text
-    m = re.search(r"const BUILD = (\{.*?\});\n", text)
-    assert m, "sw.js has no BUILD object"
-    sw_build = json.loads(m.group(1))
-    assert set(sw_build["files"]) == set(manifest["files"])
-    assert sw_build["cache"] == manifest["cache"]
-    assert manifest["content_sha256"][:16] in manifest["cache"]
-    for page in ("index.html", "manifest.webmanifest", "pyodide/pyodide.asm.wasm",
-                 "static/worker.js", "static/engine.mjs"):
-        assert page in sw_build["files"], page
-
-
-def test_every_calculator_has_a_page_with_the_csp(site):
-    import noblegap.api as api
-
-    pages = [build.calc_page(c) for c in api.describe()["calculators"]] + ["index.html"]
-    for page in pages:
-        text = (site / page).read_text()
-        m = re.search(r'<meta http-equiv="Content-Security-Policy" content="([^"]*)"', text)
-        assert m, f"{page} has no CSP meta element"
-        assert html.unescape(m.group(1)) == build.CSP, page
-
-
-OWN_FILES = (".html", ".js", ".mjs", ".css", ".json", ".webmanifest", ".svg")
-# Namespace identifiers, never fetched.
-NOT_REQUESTS = ("http://www.w3.org/",)
-
-
-def test_no_url_to_another_origin(site):
-    """Nothing outside site/pyodide names another origin.
-
-    Pyodide's own files mention its CDN for packages missing from the lock;
-    every package is in our lock with a relative file name (checked above),
-    so that code path never runs.
-    """
-    offenders = []
-    for path in site.rglob("*"):
-        rel = path.relative_to(site).as_posix()
-        if not path.is_file() or rel.startswith("pyodide/") or path.suffix not in OWN_FILES:
-            continue
-        for url in re.findall(r"""https?://[^\s"'<>)]+""", path.read_text()):
-            if not url.startswith(NOT_REQUESTS):
-                offenders.append(f"{rel}: {url}")
-    assert offenders == []
-
-
-def test_web_app_manifest_is_installable(site):
-    data = json.loads((site / "manifest.webmanifest").read_text())
-    assert data["name"] == "noblegap"
-    assert data["start_url"] == "./index.html"
-    assert data["display"] == "standalone"
-    sizes = {icon["sizes"] for icon in data["icons"]}
-    assert {"192x192", "512x512"} <= sizes
-    for icon in data["icons"]:
-        assert (site / icon["src"]).is_file(), icon["src"]
-
-
-def test_server_sends_csp_and_types(site):
-    with serve_site(site) as base:
-        for path, mime in [("index.html", "text/html"), ("pyodide/pyodide.mjs", "text/javascript"),
-                           ("pyodide/pyodide.asm.wasm", "application/wasm"),
-                           ("manifest.webmanifest", "application/manifest+json")]:
-            with urllib.request.urlopen(base + path, timeout=10) as resp:
-                assert resp.headers["Content-Security-Policy"] == build.CSP
-                assert resp.headers["Content-Type"].startswith(mime), path
-
-
-# ---------------------------------------------------------------- memory snapshot
-
-
 @pytest.fixture(scope="module")
 def snapshot_info(site):
-    return json.loads((site / build.PACKAGES_DIR / build.SNAPSHOT_INFO).read_text())
+    return json.loads((site / paths.PACKAGES_DIR / SNAPSHOT_INFO).read_text())
 
 
 def _container(site, info):
     import gzip
 
-    data = gzip.decompress((site / build.PACKAGES_DIR / info["file"]).read_bytes())
-    assert data[:8] == build.SNAPSHOT_MAGIC
+    data = gzip.decompress((site / paths.PACKAGES_DIR / info["file"]).read_bytes())
+    assert data[:8] == SNAPSHOT_MAGIC
     length = int.from_bytes(data[8:12], "little")
     return data, json.loads(data[12:12 + length]), 12 + length
 
 
 def test_snapshot_sidecar_matches_its_file_pyodide_and_lock(site, snapshot_info, manifest):
     info = snapshot_info
-    pin = build.load_pyodide_pin()
-    path = site / build.PACKAGES_DIR / info["file"]
-    assert info["format"] == build.SNAPSHOT_FORMAT
+    pin = paths.load_pyodide_pin()
+    path = site / paths.PACKAGES_DIR / info["file"]
+    assert info["format"] == SNAPSHOT_FORMAT
     assert (info["pyodide"], info["python"]) == (pin["version"], pin["python"])
-    assert info["pyodide_build_id"] == build.SNAPSHOT_REVIEWED[pin["version"]]
+    assert info["pyodide_build_id"] == REVIEWED[pin["version"]]
     assert info["sha256"] == sha256(path) and info["size"] == path.stat().st_size
-    lock_sha = sha256(site / build.PACKAGES_DIR / build.LOCK_NAME)
+    lock_sha = sha256(site / paths.PACKAGES_DIR / NAMES["lock_file"])
     assert info["lock_sha256"] == lock_sha
     # the id engine.mjs computes from the Pyodide it loads and the lock it fetches
     expected_id = hashlib.sha256(
-        f"noblegap-snapshot/{build.SNAPSHOT_FORMAT}|pyodide {pin['version']}|lock {lock_sha}".encode()).hexdigest()
+        f"noblegap-snapshot/{SNAPSHOT_FORMAT}|pyodide {pin['version']}|lock {lock_sha}".encode()).hexdigest()
     assert info["build_id"] == expected_id
     # shipped compressed, listed in the manifest, so the service worker precaches it
     assert info["size"] < info["raw_size"] / 2
-    assert f"{build.PACKAGES_DIR}/{info['file']}" in manifest["files"]
-    assert f"{build.PACKAGES_DIR}/{build.SNAPSHOT_INFO}" in manifest["files"]
+    assert f"{paths.PACKAGES_DIR}/{info['file']}" in manifest["files"]
+    assert f"{paths.PACKAGES_DIR}/{SNAPSHOT_INFO}" in manifest["files"]
     assert not info["file"].endswith(".gz"), "a host could send Content-Encoding: gzip for .gz"
 
 
@@ -249,7 +131,7 @@ def test_snapshot_holds_the_package_files_python_may_still_read(site, snapshot_i
     assert len(data) == snapshot_info["raw_size"]
     wheel_files = {}
     for entry in lock["packages"].values():
-        with zipfile.ZipFile(site / build.PACKAGES_DIR / entry["file_name"]) as zf:
+        with zipfile.ZipFile(site / paths.PACKAGES_DIR / entry["file_name"]) as zf:
             wheel_files.update({i.filename: zf.read(i) for i in zf.infolist() if not i.is_dir()})
     # left out: only compiled modules that were imported before the save
     imported = set(header["imported"])
@@ -329,7 +211,7 @@ def _rebuild(data, base_image):
 
 def test_snapshot_container_round_trip():
     pin = {"version": "0"}
-    page = build.SNAPSHOT_PAGE
+    page = SNAPSHOT_PAGE
     prefix = b"snp\0" + (16).to_bytes(4, "little") + b"12345678"
     base = b"\x05" * 10 + bytes(page - 10) + b"\x07" * page + bytes(page)
     heap = (b"\x05" * 10 + bytes(page - 10)           # page 0: same as the base -> left out
@@ -339,7 +221,7 @@ def test_snapshot_container_round_trip():
             + b"\x03" * 7)                            # a partial last page
     memory = prefix + heap
     files = {"a/b.py": b"xyz", "a/c.pyc": b"CODE-OF-C"}
-    data = build._snapshot_container(files, memory, base[:2 * page], b"\x05\x07", pin, imported=["a/c.pyc"])
+    data = snapshot_container(files, memory, base[:2 * page], b"\x05\x07", pin, imported=["a/c.pyc"])
     header, rebuilt = _rebuild(data, base[:2 * page])
     assert header["files"] == [["a/b.py", 3]] and header["imported"] == ["a/c.pyc"]
     at = 12 + int.from_bytes(data[8:12], "little") + 16
@@ -353,19 +235,19 @@ def test_snapshot_container_round_trip():
 
 def test_snapshot_container_refuses_unknown_imported_files():
     memory = b"snp\0" + (16).to_bytes(4, "little") + bytes(8) + bytes(64)
-    with pytest.raises(build.BuildError, match="not among the package files"):
-        build._snapshot_container({"a.py": b""}, memory, b"", b"", {"version": "0"}, imported=["b.pyc"])
+    with pytest.raises(BuildError, match="not among the package files"):
+        snapshot_container({"a.py": b""}, memory, b"", b"", {"version": "0"}, imported=["b.pyc"])
 
 
 def test_snapshot_container_refuses_an_unknown_pyodide_header():
-    with pytest.raises(build.BuildError, match="not a snapshot"):
-        build._snapshot_container({}, b"snp\0" + (7).to_bytes(4, "little") + bytes(64), b"", b"", {"version": "0"})
+    with pytest.raises(BuildError, match="not a snapshot"):
+        snapshot_container({}, b"snp\0" + (7).to_bytes(4, "little") + bytes(64), b"", b"", {"version": "0"})
 
 
 def test_site_stdlib_is_a_byte_identical_subset_of_pyodides(site):
-    pin = build.load_pyodide_pin()
-    official = build.fetch_pyodide(pin, offline=True) / "python_stdlib.zip"
-    with zipfile.ZipFile(official) as full, zipfile.ZipFile(site / "pyodide" / build.STDLIB_FILE) as ours:
+    pin = paths.load_pyodide_pin()
+    official = runtime.fetch_pyodide(pin, offline=True) / "python_stdlib.zip"
+    with zipfile.ZipFile(official) as full, zipfile.ZipFile(site / "pyodide" / STDLIB_FILE) as ours:
         names = ours.namelist()
         assert set(names) < set(full.namelist())
         assert names == [n for n in full.namelist() if n in set(names)]       # original order

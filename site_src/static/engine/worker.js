@@ -11,15 +11,25 @@
 //                                                    build's memory snapshot) or "normal",
 //                                                    note says why a snapshot was not used
 //       {type: "fatal", message}                     the engine cannot start or crashed
+// (the message types, call names and modes are those of names.json, which
+// the build writes and the page script reads too)
 //
 // Calls sent before "ready" are queued and answered once the engine is up.
-import { startEngine } from "./engine.mjs";
+//
+// The engine (engine.mjs) and, when the site has one, the fast start
+// (faststart/start.mjs) are imported at once and side by side; no await at
+// the top level, so the message handler below is in place from the start.
+import NAMES from "./names.json" with { type: "json" };
+
+const { messages: MSG, calls: CALLS } = NAMES;
+const faststart = NAMES.faststart ? import("./faststart/start.mjs") : false;
+if (faststart) faststart.catch(() => {});
 
 const post = (msg) => self.postMessage(msg);
 
 const fatal = (err) => {
   const message = err && err.message ? err.message : String(err);
-  post({ type: "fatal", message });
+  post({ type: MSG.fatal, message });
 };
 
 self.onerror = (event) => {
@@ -27,13 +37,16 @@ self.onerror = (event) => {
 };
 self.onunhandledrejection = (event) => fatal(event.reason);
 
-const engineReady = startEngine({
-  onProgress: ({ phase, fraction, label }) => post({ type: "progress", phase, fraction, label }),
-});
+const engineReady = import("./engine.mjs").then(({ startEngine }) =>
+  startEngine({
+    faststart,
+    onProgress: ({ phase, fraction, label }) => post({ type: MSG.progress, phase, fraction, label }),
+  }),
+);
 engineReady.then(
   (engine) => {
     post({
-      type: "ready",
+      type: MSG.ready,
       mode: engine.mode,
       ...(engine.note ? { note: engine.note } : {}),
       timings: engine.timings,
@@ -101,12 +114,12 @@ function workerError(error) {
 }
 
 function answer(engine, fn, args) {
-  if (fn === "run") {
+  if (fn === CALLS.run) {
     const response = engine.run(args.calc, args.inputs);
     if (response.ok) return { ok: true, result: response };
     return { ok: false, error: workerError(response.error ?? {}), response };
   }
-  if (fn === "describe") {
+  if (fn === CALLS.describe) {
     const response = engine.describe(args.calc);
     if (response.ok === false) return { ok: false, error: workerError(response.error ?? {}), response };
     return { ok: true, result: response };
@@ -115,7 +128,7 @@ function answer(engine, fn, args) {
     ok: false,
     error: {
       type: "UnknownFunction",
-      message: `The engine has no function ${JSON.stringify(fn)}; use "run" or "describe".`,
+      message: `The engine has no function ${JSON.stringify(fn)}; use ${Object.values(CALLS).map((c) => JSON.stringify(c)).join(" or ")}.`,
       fields: {},
     },
   };

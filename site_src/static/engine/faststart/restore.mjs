@@ -1,10 +1,14 @@
-// The pieces of the snapshot start that do not need Pyodide: the snapshot
-// container and the runtime's data segments it is a delta against.
+// The pieces of the fast start that do not need Pyodide: the snapshot
+// container and the runtime's data segments it is a delta against, and the
+// wrapper of fetch / WebAssembly.instantiateStreaming that hands the fast
+// start the runtime's module and memory.
 //
-// Used by static/engine.mjs (browser worker and Node parity runner) and by
-// tools/make_snapshot.mjs (the build), so both read and write the same way.
+// Used by start.mjs (browser worker and Node parity runner) and by
+// site_build/faststart/make_snapshot.mjs (the build), so both read and
+// write the same way. The format constants come from names.json
+// ("faststart"), written once by the build.
 //
-// Container (after gunzip), format 3:
+// Container (after gunzip), format 3 (site_build/faststart/FORMAT.md):
 //
 //   "NGSNAP03", u32 LE header length, header JSON,
 //   the first prefix_size bytes of Pyodide's memory snapshot (its own header),
@@ -33,9 +37,6 @@
 // (header.imported lists them): their code is in the memory and Python never
 // reads their files again.
 
-export const SNAPSHOT_FORMAT = 3;
-export const SNAPSHOT_MAGIC = "NGSNAP03";
-
 function hex(buffer) {
   return [...new Uint8Array(buffer)].map((b) => b.toString(16).padStart(2, "0")).join("");
 }
@@ -50,11 +51,12 @@ const isInt = (n) => Number.isSafeInteger(n) && n >= 0;
 /**
  * Check a decompressed container and split it into {header, prefix, gaps,
  * files, pages}. memorySize is the size the (already checked) sidecar
- * gives; nothing is written anywhere (applyPages and applyBase do that).
+ * gives, names the fast start's names ({format, magic}); nothing is written
+ * anywhere (applyPages and applyBase do that).
  */
-export function parseSnapshot(bytes, memorySize) {
+export function parseSnapshot(bytes, memorySize, names) {
   const magic = new TextDecoder().decode(bytes.subarray(0, 8));
-  if (magic !== SNAPSHOT_MAGIC) throw new Error("not a noblegap snapshot (bad magic)");
+  if (magic !== names.magic) throw new Error("not a noblegap snapshot (bad magic)");
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   const headerLength = view.getUint32(8, true);
   if (12 + headerLength > bytes.length) throw new Error("snapshot header is truncated");
@@ -65,7 +67,7 @@ export function parseSnapshot(bytes, memorySize) {
     throw new Error("snapshot header is not JSON");
   }
   const { prefix_size: prefixSize, page_size: pageSize, memory_size: size, memory_offset: at, base } = header;
-  if (header.format !== SNAPSHOT_FORMAT) throw new Error(`snapshot container format ${header.format}`);
+  if (header.format !== names.format) throw new Error(`snapshot container format ${header.format}`);
   if (![prefixSize, pageSize, size, at].every(isInt) || pageSize === 0 || prefixSize % 4 || pageSize % 4) {
     throw new Error("snapshot header has bad sizes");
   }

@@ -1,12 +1,12 @@
 // Run calculator cases inside Pyodide under Node, loading the built site the
-// way the browser worker does (site/static/engine.mjs: same runtime files,
+// way the browser worker does (site/static/engine/: same runtime files,
 // same lock file, same wheels, same memory snapshot).
 //
-// usage: node tools/pyodide_run.mjs [--mode normal|snapshot] SITE_DIR CASES.json
+// usage: node site_build/pyodide_run.mjs [--mode normal|snapshot] SITE_DIR CASES.json
 //
 //   --mode normal    (default) loadPyodide + loadPackage from the lock file
-//   --mode snapshot  restore the build's memory snapshot; exits 1 if the
-//                    engine fell back to the normal start
+//   --mode snapshot  the fast start: restore the build's memory snapshot;
+//                    exits 1 if the engine fell back to the normal start
 //
 // CASES.json is a list of {"calc", "inputs"}. Prints one JSON object:
 //   {"python": "3.14.2", "mode": "...", "note": ..., "random": random.random(), "timings": {...},
@@ -26,15 +26,17 @@ if (argv[0] === "--mode") {
   argv.splice(0, 2);
 }
 if (argv.length !== 2 || !["normal", "snapshot"].includes(mode)) {
-  console.error("usage: node tools/pyodide_run.mjs [--mode normal|snapshot] SITE_DIR CASES.json");
+  console.error("usage: node site_build/pyodide_run.mjs [--mode normal|snapshot] SITE_DIR CASES.json");
   process.exit(2);
 }
 const site = resolve(argv[0]);
 const cases = JSON.parse(await readFile(argv[1], "utf8"));
-const lockPath = join(site, "packages", "noblegap-lock.json");
+const engineDir = join(site, "static", "engine");
+const NAMES = JSON.parse(await readFile(join(engineDir, "names.json"), "utf8"));
+const lockPath = join(site, NAMES.packages_dir, NAMES.lock_file);
 const lock = JSON.parse(await readFile(lockPath, "utf8"));
 for (const pkg of Object.values(lock.packages)) {
-  const data = await readFile(join(site, "packages", pkg.file_name));
+  const data = await readFile(join(site, NAMES.packages_dir, pkg.file_name));
   const digest = createHash("sha256").update(data).digest("hex");
   if (digest !== pkg.sha256) {
     console.error(`${pkg.file_name}: sha256 ${digest} does not match the lock file (${pkg.sha256})`);
@@ -59,25 +61,36 @@ async function fileFetch(url, init = {}) {
   return new Response(data);
 }
 
-const { startEngine } = await import(pathToFileURL(join(site, "static", "engine.mjs")).href);
+if (mode === "snapshot" && !NAMES.faststart) {
+  console.error(`${site} was built without the fast start (python3 build.py --no-faststart)`);
+  process.exit(1);
+}
+const { startEngine } = await import(pathToFileURL(join(engineDir, "engine.mjs")).href);
 const engine = await startEngine({
-  indexURL: join(site, "pyodide") + "/",
+  indexURL: join(site, NAMES.pyodide_dir) + "/",
   lockFileURL: lockPath,
-  snapshotInfoURL: mode === "snapshot" ? pathToFileURL(join(site, "packages", "noblegap-snapshot.json")).href : false,
+  faststart: mode === "snapshot" ? import(pathToFileURL(join(engineDir, "faststart", "start.mjs")).href) : false,
+  snapshotInfoURL:
+    mode === "snapshot" ? pathToFileURL(join(site, NAMES.packages_dir, NAMES.faststart.info_file)).href : undefined,
   fetch: fileFetch,
   stdout: (msg) => console.error(msg),
   stderr: (msg) => console.error(msg),
 });
-if (engine.mode !== mode) {
+const wanted = mode === "snapshot" ? NAMES.modes.faststart : NAMES.modes.normal;
+if (engine.mode !== wanted) {
   console.error(`asked for mode ${mode}, the engine started in mode ${engine.mode} (${engine.note ?? ""})`);
   process.exit(1);
 }
 const results = cases.map((c) => engine.run(c.calc, c.inputs));
 // The next number of Python's random module: differs between two restores
 // of the same snapshot only if the engine re-seeded it.
-const random = engine.pyodide.runPython("import random; random.random()");
+const randomModule = engine.pyodide.pyimport("random");
+const random = randomModule.random();
+randomModule.destroy();
 const sys = engine.pyodide.pyimport("sys");
-const python = `${sys.version_info.major}.${sys.version_info.minor}.${sys.version_info.micro}`;
+const info = sys.version_info;
+const python = `${info.major}.${info.minor}.${info.micro}`;
+info.destroy();
 sys.destroy();
 process.stdout.write(
   JSON.stringify({ python, mode: engine.mode, note: engine.note ?? null, random, timings: engine.timings, results }) + "\n",

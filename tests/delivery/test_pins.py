@@ -13,20 +13,22 @@ import tomllib
 
 import pytest
 
-from _site import ROOT, build_module, ensure_site
+from _site import ROOT, ensure_site
+from site_build import paths
+from site_build.common import normalize
+from site_build.names import NAMES
 
-build = build_module()
-REQUIREMENTS = build.core_requirements()
+REQUIREMENTS = paths.core_requirements()
 
 
 @pytest.fixture(scope="module")
 def site_lock():
-    return json.loads((ensure_site() / build.PACKAGES_DIR / build.LOCK_NAME).read_text())
+    return json.loads((ensure_site() / paths.PACKAGES_DIR / NAMES["lock_file"]).read_text())
 
 
 def test_requirements_are_exact_pins():
     assert REQUIREMENTS, "requirements-core.txt lists no packages"
-    assert len({build.normalize(n) for n, _ in REQUIREMENTS}) == len(REQUIREMENTS)
+    assert len({normalize(n) for n, _ in REQUIREMENTS}) == len(REQUIREMENTS)
 
 
 @pytest.mark.parametrize("name,version", REQUIREMENTS, ids=[n for n, _ in REQUIREMENTS])
@@ -36,20 +38,20 @@ def test_cpython_has_the_pinned_version(name, version):
 
 def test_pyproject_dependencies_match_requirements():
     deps = tomllib.loads((ROOT / "pyproject.toml").read_text())["project"]["dependencies"]
-    pinned = {build.normalize(n): v for n, v in REQUIREMENTS}
+    pinned = {normalize(n): v for n, v in REQUIREMENTS}
     for dep in deps:
         m = re.fullmatch(r"([A-Za-z0-9._-]+)==(\S+)", dep)
         assert m, f"pyproject dependency {dep!r} is not an exact pin"
-        assert pinned.get(build.normalize(m.group(1))) == m.group(2), dep
+        assert pinned.get(normalize(m.group(1))) == m.group(2), dep
 
 
 def test_wheel_checksums_cover_exactly_the_pins():
-    names = {(build.normalize(f.split("-")[0]), f.split("-")[1]) for f in build.load_wheel_pins()}
-    assert names == {(build.normalize(n), v) for n, v in REQUIREMENTS}
+    names = {(normalize(f.split("-")[0]), f.split("-")[1]) for f in paths.load_wheel_pins()}
+    assert names == {(normalize(n), v) for n, v in REQUIREMENTS}
 
 
 def test_pyodide_pin_is_well_formed():
-    pin = build.load_pyodide_pin()
+    pin = paths.load_pyodide_pin()
     assert re.fullmatch(r"\d+\.\d+\.\d+", pin["version"])
     assert re.fullmatch(r"sha512-[A-Za-z0-9+/]{86}==", pin["integrity"])
     assert set(pin["site_files"]) <= set(pin["files"])
@@ -57,15 +59,15 @@ def test_pyodide_pin_is_well_formed():
 
 def test_site_bundles_the_pinned_versions(site_lock):
     bundled = {name: entry["version"] for name, entry in site_lock["packages"].items()}
-    expected = {build.normalize(n): v for n, v in REQUIREMENTS}
+    expected = {normalize(n): v for n, v in REQUIREMENTS}
     expected["noblegap"] = tomllib.loads((ROOT / "pyproject.toml").read_text())["project"]["version"]
     assert bundled == expected
     for name, entry in site_lock["packages"].items():
         dist, version = entry["file_name"].split("-")[:2]
-        assert (build.normalize(dist), version) == (name, entry["version"])
+        assert (normalize(dist), version) == (name, entry["version"])
 
 
 def test_site_lock_matches_the_pinned_pyodide(site_lock):
-    pin = build.load_pyodide_pin()
+    pin = paths.load_pyodide_pin()
     assert site_lock["info"]["python"] == pin["python"]
     assert site_lock["info"]["abi_version"] == pin["abi_version"]

@@ -1,0 +1,183 @@
+// The fast start: the engine's memory restored from the build's snapshot
+// instead of starting Python.
+//
+// engine.mjs imports this module only when names.json lists a fast start;
+// without this folder the site starts the normal way. Everything private
+// lives here and in restore.mjs (FORMAT.md in site_build/faststart/ lists
+// it, with the Pyodide version reviewed): loadPyodide's _loadSnapshot, and
+// the wrapped fetch / WebAssembly.instantiateStreaming (restore.mjs).
+//
+// The build boots Pyodide under Node, installs the engine's packages, runs
+// noblegap.engine_hooks.warm_up() and saves the WebAssembly memory
+// (packages/noblegap-snapshot.json names the file and how to check it).
+// Here the runtime is compiled while pyodide.asm.mjs loads and instantiated
+// while the snapshot downloads, its data segments are the base the snapshot
+// is a delta against, the package files the engine may still read go back
+// into site-packages, engine_hooks.after_restore() re-seeds Python's random
+// state, and engine_hooks.known_case_error() must find the answer the build
+// recorded.
+import { NAMES, PYODIDE_VERSION, bindApi, loadPyodide, runtimeOptions } from "../engine.mjs";
+import { applyBase, applyPages, baseFromMemory, captureRuntimeWasm, parseSnapshot, sha256Hex } from "./restore.mjs";
+
+const FAST = NAMES.faststart;
+
+/** The id a snapshot must carry for this Pyodide and this lock file. */
+export async function snapshotBuildId(pyodideVersion, lockSha256) {
+  const text = FAST.build_id.replace("{format}", String(FAST.format))
+    .replace("{pyodide}", pyodideVersion)
+    .replace("{lock_sha256}", lockSha256);
+  return sha256Hex(text);
+}
+
+/** Write the package files of a snapshot (or of the build) into site-packages. */
+export function installFiles(FS, sitePackages, files) {
+  const made = new Set();
+  for (const [path, data] of files) {
+    const dir = path.includes("/") ? `${sitePackages}/${path.slice(0, path.lastIndexOf("/"))}` : sitePackages;
+    if (!made.has(dir)) {
+      FS.mkdirTree(dir);
+      made.add(dir);
+    }
+    FS.writeFile(`${sitePackages}/${path}`, data, { canOwn: false });
+  }
+}
+
+/**
+ * Unpack a gzip response: {bytes, sha256}, the sha256 being that of the
+ * compressed bytes as they came.
+ */
+async function gunzipResponse(response) {
+  if (!response.ok) throw new Error(`snapshot file: HTTP ${response.status}`);
+  // whole first (drained off this thread), then hashed and unpacked at once
+  const packed = new Uint8Array(await response.arrayBuffer());
+  const hashed = sha256Hex(packed);
+  const stream = new Blob([packed]).stream().pipeThrough(new DecompressionStream("gzip"));
+  const bytes = new Uint8Array(await new Response(stream).arrayBuffer());
+  return { bytes, sha256: await hashed };
+}
+
+// The sidecar, checked against this Pyodide and the lock file it will load;
+// returns {info, lock}.
+async function snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn) {
+  const [infoResponse, lockResponse] = await Promise.all([
+    fetchFn(snapshotInfoURL, { cache: "no-cache" }),
+    fetchFn(lockFileURL),
+  ]);
+  if (!infoResponse.ok) throw new Error(`no snapshot (${infoResponse.status})`);
+  if (!lockResponse.ok) throw new Error(`no lock file (${lockResponse.status})`);
+  const info = await infoResponse.json();
+  const lockBytes = new Uint8Array(await lockResponse.arrayBuffer());
+  const lockSha = await sha256Hex(lockBytes);
+  if (info.format !== FAST.format) throw new Error(`snapshot format ${info.format}, expected ${FAST.format}`);
+  if (info.pyodide !== PYODIDE_VERSION) {
+    throw new Error(`snapshot made with Pyodide ${info.pyodide}, this is ${PYODIDE_VERSION}`);
+  }
+  const buildId = await snapshotBuildId(PYODIDE_VERSION, lockSha);
+  if (info.build_id !== buildId) throw new Error("snapshot build id does not match this Pyodide and lock file");
+  const size = info.memory_size;
+  if (!Number.isInteger(size) || size <= 0 || size % 4 !== 0) {
+    throw new Error(`snapshot sidecar gives a bad memory size ${JSON.stringify(size)}`);
+  }
+  return { info, lock: JSON.parse(new TextDecoder().decode(lockBytes)) };
+}
+
+export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark }) {
+  snapshotInfoURL ??= new URL(`../../../${NAMES.packages_dir}/${FAST.info_file}`, import.meta.url).href;
+  phase("fetch runtime", "Fetching the Python runtime and the prepared engine");
+  // loadPyodide starts at once (the runtime downloads meanwhile); it waits
+  // for the memory, which is only handed over once the sidecar matches.
+  const checked = snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn);
+  // The file is requested at the same time as the sidecar (one round trip
+  // less); its bytes are used only if the sidecar names this file, and they
+  // must still have the sidecar's sha256.
+  const snapshotBase = new URL(snapshotInfoURL, "file:///");
+  const guessURL = new URL(FAST.snapshot_file, snapshotBase).href;
+  const stop = new AbortController();
+  const unpack = (url) => fetchFn(url, { signal: stop.signal }).then(gunzipResponse);
+  const early = unpack(guessURL);
+  early.catch(() => {});
+  // No usable sidecar (the normal start follows): stop the download.
+  checked.catch(() => stop.abort());
+  // Pyodide needs only the memory's size to compile and instantiate its
+  // WebAssembly, and reads the memory itself only after fsInit below has
+  // returned: so it gets a zero-filled buffer of the sidecar's size at once,
+  // compiles while the snapshot downloads and unpacks, and the buffer is
+  // filled before fsInit returns. Should anything fail, the buffer's magic
+  // number is zero (or wiped by fsInit), Pyodide rejects it and the normal
+  // start follows with the real error as the reason.
+  const memory = checked.then(({ info }) => new Uint8Array(info.memory_size));
+  const container = (async () => {
+    const { info } = await checked;
+    mark("snapshot info checked");
+    const url = new URL(info.file, snapshotBase).href;
+    const { bytes, sha256 } = await (url === guessURL ? early : unpack(url));
+    mark("snapshot unpacked");
+    if (bytes.length !== info.raw_size) {
+      throw new Error(`snapshot unpacks to ${bytes.length} bytes, its sidecar says ${info.raw_size}`);
+    }
+    if (sha256 !== info.sha256) throw new Error("snapshot file does not match its sha256");
+    return parseSnapshot(bytes, info.memory_size, FAST);
+  })();
+  // loadPyodide awaits the memory only after it has loaded its own script:
+  // keep an early rejection from surfacing as unhandled meanwhile (it still
+  // rejects loadPyodide, and so starts the normal way).
+  for (const promise of [checked, container, memory]) promise.catch(() => {});
+  // The runtime's binary, compiled as soon as its response arrives; its
+  // memory, once instantiated, holds the base the snapshot is a delta against.
+  const wasmURL =
+    typeof location === "undefined" ? null : new URL("pyodide.asm.wasm", new URL(indexURL, location)).href;
+  const capture = captureRuntimeWasm(wasmURL);
+  // What needs no runtime is written as soon as the container is here:
+  // Pyodide's header and the pages past the base.
+  const paged = Promise.all([container, memory]).then(([snapshot, target]) => {
+    applyPages(snapshot, target);
+    mark("pages copied");
+    return snapshot;
+  });
+  paged.catch(() => {});
+  let containerError = null;
+  const pyodide = await loadPyodide({
+    ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
+    _loadSnapshot: memory,
+    // Runs once the WebAssembly is instantiated and before Python resumes
+    // from the memory: the base pages are rebuilt from the runtime's fresh
+    // memory, and the snapshot's package files go back where the build had
+    // them. Never throws (Pyodide does not await this hook's errors): a
+    // failure is kept and reported instead of Pyodide's complaint about the
+    // memory, whose magic number is wiped so Pyodide never resumes from it.
+    fsInit: async (FS, { sitePackages }) => {
+      mark("runtime instantiated");
+      const runtimeMemory = capture.memory();
+      capture.release();
+      try {
+        if (!runtimeMemory) throw new Error("the runtime's memory was not seen");
+        const snapshot = await paged;
+        const base = baseFromMemory(runtimeMemory.buffer, snapshot);
+        if ((await sha256Hex(base)) !== snapshot.header.base.sha256) {
+          throw new Error("the runtime's data segments differ from the ones the snapshot was made against");
+        }
+        phase("restore snapshot");
+        applyBase(snapshot, await memory, base);
+        mark("memory rebuilt");
+        installFiles(FS, sitePackages, snapshot.files);
+        mark("files installed");
+      } catch (err) {
+        containerError = err;
+        (await memory.catch(() => new Uint8Array(8))).fill(0, 0, 8);
+      }
+    },
+  })
+    .catch((err) => {
+      throw containerError ?? err;
+    })
+    .finally(() => capture.release());
+  if (containerError) throw containerError;
+  const { info } = await checked;
+  phase("check engine");
+  const bound = bindApi(pyodide);
+  bound.hooks.after_restore();
+  const problem = bound.hooks.known_case_error(JSON.stringify(info.known_case));
+  if (problem) throw new Error(problem);
+  bound.hooks.freeze();
+  return { pyodide, ...bound, mode: NAMES.modes.faststart };
+}
