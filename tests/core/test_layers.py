@@ -5,7 +5,7 @@ from pathlib import Path
 
 import pytest
 
-CORE = Path(__file__).resolve().parents[1] / "core" / "noblegap"
+CORE = Path(__file__).resolve().parents[2] / "core" / "noblegap"
 
 # Higher number = higher layer. A module may import only from its own layer or below.
 LAYER = {"foundation": 0, "materials": 1, "methods": 2, "calculators": 3, "interface": 4}
