@@ -8,8 +8,15 @@ electrode's own potential is stated against the standard hydrogen electrode,
     E_V_SHE = E_V_X + E_ref_V_SHE(X)
     E_V_Y   = E_V_X + E_ref_V_SHE(X) − E_ref_V_SHE(Y)
 
-A reference's potential at temperature T uses its published temperature
-coefficient where one exists: E(T) = E(25 °C) + (dE/dT)·(T − 298.15 K).
+Temperature: the measuring electrode and the reference electrode are both
+taken to be at the same temperature T, and every potential is stated on the
+hydrogen scale at that temperature (the SHE is zero at every temperature by
+convention). On that scale a reference moves with its *isothermal* coefficient:
+E(T) = E(25 °C) + (dE/dT)_iso·(T − 298.15 K). Some sources print a *thermal*
+coefficient instead (the electrode warmed against an identical one held at the
+base temperature); the two differ by the thermal coefficient of the hydrogen
+electrode, (dE/dT)_iso = (dE/dT)_th − (dE/dT)_th,SHE. ``dEdT_kind`` in
+``data/reference_electrodes.csv`` says which one each source printed.
 """
 
 from __future__ import annotations
@@ -19,6 +26,9 @@ from .report import Report
 from .schema import CHOICE, QUANTITY, Calculator, Field
 
 T25_K = 298.15
+
+COEF_ISOTHERMAL = "isothermal"
+COEF_THERMAL = "thermal"
 
 
 def reference_ids():
@@ -31,15 +41,38 @@ def reference(ref_id, field="reference"):
     return data.lookup("reference_electrodes", ref_id, field=field, what="reference electrode")
 
 
+def isothermal_coefficient(row):
+    """Isothermal temperature coefficient of a reference electrode [mV/K].
+
+    A thermal coefficient (``dEdT_kind`` = ``thermal``) is turned into an
+    isothermal one by subtracting the thermal coefficient of the hydrogen
+    electrode; the SHE itself is 0 by definition. None if the table has none.
+
+    Example
+    -------
+    >>> round(isothermal_coefficient(reference("cse")), 3)
+    0.029
+    """
+    if row["id"] == "she":
+        return 0.0
+    coef = row["dEdT_mV_per_K"]
+    if coef is None:
+        return None
+    if row["dEdT_kind"] == COEF_THERMAL:
+        return coef - reference("she")["dEdT_mV_per_K"]
+    return coef
+
+
 def reference_potential(ref_id, T_K=T25_K, field="reference"):
-    """Potential of a reference electrode vs SHE at ``T_K``.
+    """Potential of a reference electrode vs SHE, both at ``T_K``.
 
     Parameters
     ----------
     ref_id : str
         Id in ``data/reference_electrodes.csv`` (``sce``, ``cse``, ...).
     T_K : float
-        Temperature [K].
+        Temperature of the reference electrode and of the hydrogen electrode
+        it is stated against [K].
 
     Returns
     -------
@@ -50,9 +83,11 @@ def reference_potential(ref_id, T_K=T25_K, field="reference"):
     -------
     >>> round(reference_potential("sce")[0], 4)
     0.2412
+    >>> round(reference_potential("sce", 308.15)[0], 4)
+    0.2344
     """
     row = reference(ref_id, field)
-    coef = row["dEdT_mV_per_K"]
+    coef = isothermal_coefficient(row)
     if coef is None:
         return row["E_V_SHE"], False, row
     return row["E_V_SHE"] + coef * 1e-3 * (T_K - T25_K), True, row
@@ -78,22 +113,40 @@ def compute_convert(potential, from_ref, to_ref, temperature):
     rep.row("Potential on the target scale", units.fmt(out, "V", 4),
             f"computed: E(vs {to_ref}) = E(vs {from_ref}) + E_{from_ref} − E_{to_ref}",
             key="potential_V")
+    rep.row("Temperature of both electrodes",
+            f"{units.fmt(T_K - 273.15, '°C', 3)} (measuring electrode and reference alike)",
+            "stated: both reference potentials are on the hydrogen scale at this temperature")
     missing = []
+    she = reference("she")
     for role, row, e, coef in (("From", row_from, e_from, coef_from),
                                ("To", row_to, e_to, coef_to)):
         rep.row(f"{role}: {row['name']} vs SHE at {units.fmt(T_K - 273.15, '°C', 3)}",
                 units.fmt(e, "V", 4), data.cite(row))
-        if coef:
-            if row["dEdT_mV_per_K"]:
-                rep.row(f"{row['name']} temperature coefficient",
+        if coef and row["id"] != "she":
+            iso = isothermal_coefficient(row)
+            if row["dEdT_kind"] == COEF_THERMAL:
+                rep.row(f"{row['name']} thermal temperature coefficient",
                         f"{row['dEdT_mV_per_K']:+g} mV/K", data.cite(row, "dEdT_"))
-        elif off_25:
+                rep.row("Thermal temperature coefficient of the hydrogen electrode",
+                        f"{she['dEdT_mV_per_K']:+g} mV/K", data.cite(she, "dEdT_"))
+                rep.row(f"{row['name']} isothermal coefficient used",
+                        f"{iso:+.3f} mV/K",
+                        "computed: (dE/dT)iso = (dE/dT)thermal − (dE/dT)thermal of the SHE")
+            else:
+                rep.row(f"{row['name']} isothermal temperature coefficient",
+                        f"{iso:+g} mV/K", data.cite(row, "dEdT_"))
+        elif not coef and off_25:
             missing.append(row["name"])
     if missing:
         rep.warn("No published temperature coefficient for " + " and ".join(missing) +
                  ": its 25 °C value is used, so the result carries extra uncertainty "
                  "away from 25 °C.")
     for row in (row_from, row_to):
+        if row["T_max_degC"] is not None and T_K - 273.15 > row["T_max_degC"]:
+            rep.warn(f"{row['name']} is normally used only up to about "
+                     f"{row['T_max_degC']:g} °C; above that its potential drifts. Keep the "
+                     "reference outside the hot zone (with a salt bridge) or use a "
+                     "silver/silver chloride electrode.")
         if row["confidence"] == "from-memory":
             rep.warn(f"The potential of {row['name']} is from memory, not confirmed "
                      "against a published source; measure it against a calibrated "
@@ -106,6 +159,11 @@ def compute_convert(potential, from_ref, to_ref, temperature):
         "temperature_K": T_K,
         "from_ref_V_SHE": e_from, "to_ref_V_SHE": e_to,
         "temperature_coefficient_used": {"from_ref": coef_from, "to_ref": coef_to},
+        "isothermal_coefficient_mV_per_K": {"from_ref": isothermal_coefficient(row_from),
+                                            "to_ref": isothermal_coefficient(row_to)},
+        "reference_above_normal_range": [r["id"] for r in (row_from, row_to)
+                                         if r["T_max_degC"] is not None
+                                         and T_K - 273.15 > r["T_max_degC"]],
         "missing_temperature_coefficient": [r["id"] for r, c in
                                             ((row_from, coef_from), (row_to, coef_to))
                                             if not c and off_25],

@@ -22,7 +22,7 @@ EXPECTED_ROWS = {
     "alloys": 55,
     "environments": 7,
     "half_reactions": 24,
-    "reference_electrodes": 7,
+    "reference_electrodes": 8,
 }
 
 # (column ending, low, high, what) — the physically sensible range of a value.
@@ -49,6 +49,7 @@ ENUMS = {
     ("alloys", "fastener_use"): ("yes", "no"),
     ("environments", "kind"): ("immersion", "atmospheric"),
     ("environments", "series_shift"): ("none", "approximate", "not-applicable"),
+    ("reference_electrodes", "dEdT_kind"): ("isothermal", "thermal", ""),
 }
 
 

@@ -76,8 +76,8 @@ def test_recalled_values_are_labelled_from_memory():
     # The shared sheet marks Pt cross-check 1.18 and Ag dE°/dT −0.989 as recalled.
     assert E0["Pt"]["cross_check_source_id"] == "from_memory"
     assert E0["Ag"]["dEdT_confidence"] == "from-memory"
-    assert REF["ag_agcl_seawater"]["confidence"] == "from-memory"
-    assert REF["cse"]["dEdT_confidence"] == "from-memory"
+    # The hydrogen electrode's thermal coefficient (0.871 mV/K) is recalled, not read.
+    assert REF["she"]["dEdT_confidence"] == "from-memory"
 
 
 @pytest.mark.parametrize("ref, source, printed", [
@@ -96,14 +96,21 @@ def test_reference_electrode_potential_vs_she(ref, source, printed):
                                                                    abs=_half(printed))
 
 
-@pytest.mark.parametrize("ref, printed", [
-    # Bard & Faulkner, 2nd ed., Table C.2 (bard_faulkner): SCE −0.67, Ag/AgCl sat. −1.0 mV/K
-    ("sce", "-0.67"), ("ag_agcl_sat_kcl", "-1.0"),
+@pytest.mark.parametrize("ref, column", [
+    # refel_temp_table (reference-electrode table, 15-35 °C, vs SHE at the same
+    # temperature). Each coefficient must reproduce the printed 15 °C and 35 °C
+    # rows from the 25 °C row to the table's printed precision.
+    ("sce", ("0.2511", "0.2444", "0.2376")),
+    ("ag_agcl_sat_kcl", ("0.209", "0.199", "0.189")),
+    ("ag_agcl_35m_kcl", ("0.212", "0.205", "0.197")),
 ])
-def test_bard_faulkner_reference_temperature_coefficient(ref, printed):
+def test_reference_temperature_coefficient_reproduces_printed_rows(ref, column):
     row = REF[ref]
-    assert row["dEdT_source_id"] == "bard_faulkner"
-    assert row["dEdT_mV_per_K"] == pytest.approx(float(printed), abs=_half(printed))
+    assert row["dEdT_source_id"] == "refel_temp_table" and row["dEdT_kind"] == "isothermal"
+    at15, at25, at35 = column
+    k = row["dEdT_mV_per_K"] * 1e-3
+    assert float(at25) - 10 * k == pytest.approx(float(at15), abs=_half(at15) + 0.0005)
+    assert float(at25) + 10 * k == pytest.approx(float(at35), abs=_half(at35) + 0.0005)
 
 
 def test_she_is_zero_by_definition():
