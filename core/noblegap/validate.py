@@ -23,6 +23,7 @@ EXPECTED_ROWS = {
     "environments": 7,
     "half_reactions": 24,
     "reference_electrodes": 8,
+    "debye_huckel": 4,
 }
 
 # (column ending, low, high, what) — the physically sensible range of a value.
