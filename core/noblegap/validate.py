@@ -24,6 +24,7 @@ EXPECTED_ROWS = {
     "half_reactions": 24,
     "reference_electrodes": 8,
     "debye_huckel": 4,
+    "holiday_tests": 3,
 }
 
 # (column ending, low, high, what) — the physically sensible range of a value.
