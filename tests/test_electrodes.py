@@ -71,3 +71,13 @@ def test_temperature_outside_liquid_water_is_refused():
     assert not out["ok"]
     assert out["error"]["field"] == "temperature"
     assert "liquid water" in out["error"]["message"]
+
+
+def test_coefficient_outside_its_measured_range_is_said():
+    inside = api.run("convert", {"potential": "-0.8 V", "from_ref": "ag_agcl_35m_kcl",
+                                 "to_ref": "she", "temperature": "30 °C"})["result"]
+    outside = api.run("convert", {"potential": "-0.8 V", "from_ref": "ag_agcl_35m_kcl",
+                                  "to_ref": "she", "temperature": "60 °C"})["result"]
+    assert inside["coefficient_extrapolated"] == []
+    assert outside["coefficient_extrapolated"] == ["ag_agcl_35m_kcl"]
+    assert any("extrapolated" in w for w in outside["display"]["warnings"])

@@ -141,6 +141,14 @@ def compute_convert(potential, from_ref, to_ref, temperature):
         rep.warn("No published temperature coefficient for " + " and ".join(missing) +
                  ": its 25 °C value is used, so the result carries extra uncertainty "
                  "away from 25 °C.")
+    extrapolated = []
+    for row, coef in ((row_from, coef_from), (row_to, coef_to)):
+        lo, hi = row["dEdT_T_min_degC"], row["dEdT_T_max_degC"]
+        if coef and lo is not None and hi is not None and not lo <= T_K - 273.15 <= hi:
+            extrapolated.append(row["id"])
+            rep.warn(f"The temperature coefficient of {row['name']} comes from readings "
+                     f"between {lo:g} and {hi:g} °C; at {units.fmt(T_K - 273.15, '°C', 3)} "
+                     "it is extrapolated, so its potential carries extra uncertainty.")
     for row in (row_from, row_to):
         if row["T_max_degC"] is not None and T_K - 273.15 > row["T_max_degC"]:
             rep.warn(f"{row['name']} is normally used only up to about "
@@ -161,6 +169,7 @@ def compute_convert(potential, from_ref, to_ref, temperature):
         "temperature_coefficient_used": {"from_ref": coef_from, "to_ref": coef_to},
         "isothermal_coefficient_mV_per_K": {"from_ref": isothermal_coefficient(row_from),
                                             "to_ref": isothermal_coefficient(row_to)},
+        "coefficient_extrapolated": extrapolated,
         "reference_above_normal_range": [r["id"] for r in (row_from, row_to)
                                          if r["T_max_degC"] is not None
                                          and T_K - 273.15 > r["T_max_degC"]],
@@ -204,7 +213,10 @@ CALCULATORS = [
             reference_field("from_ref", "Measured against", "sce"),
             reference_field("to_ref", "Convert to", "she",
                             help="Reference scale to express the potential on."),
-            temperature_field(),
+            temperature_field(help="Temperature of the measuring electrode and of the "
+                                   "reference electrode, taken to be the same; both "
+                                   "potentials are put on the hydrogen scale at this "
+                                   "temperature. Liquid water at 1 atm: 0 to 100 °C."),
         ],
         compute=compute_convert,
         example={"potential": "-0.80 V", "from_ref": "sce", "to_ref": "she",
