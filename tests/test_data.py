@@ -201,3 +201,26 @@ def test_no_blank_confidence_anywhere_beside_a_value():
                     conf = row.get(f"{prefix}confidence") if f"{prefix}confidence" in header \
                         else row.get("confidence")
                     assert conf in data.CONFIDENCE, (name, row.get("id"), col)
+
+
+def _from_memory_values():
+    out = []
+    for name, cols in validate.VALUE_SOURCES.items():
+        rows = data.table(name)
+        header = rows[0].keys()
+        for row in rows:
+            for col, prefix in cols.items():
+                if row.get(col) is None:
+                    continue
+                conf = (row.get(f"{prefix}confidence") if f"{prefix}confidence" in header
+                        else row.get("confidence"))
+                if conf == "from-memory":
+                    out.append((name, row.get("id") or row.get("alloy_id"), col))
+    return out
+
+
+def test_from_memory_values_do_not_grow():
+    # Regression pin (issue 15): values recalled but not confirmed may only go down.
+    # 2026-12-03: 181 confidence cells before sourcing; the ceiling below is the
+    # count of individual values still marked from memory after it.
+    assert len(_from_memory_values()) <= 118
