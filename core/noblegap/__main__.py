@@ -22,6 +22,8 @@ def _text(result):
         return "\n".join(lines)
     disp = result["result"].get("display", {})
     lines = [disp.get("headline", "")]
+    if disp.get("headline_confidence"):
+        lines.append(disp["headline_confidence"]["line"])
     if disp.get("verdict"):
         v = disp["verdict"]
         lines.append(f"verdict: {v['label']} — {v['reason']}")

@@ -6,7 +6,10 @@ generically with ``textContent`` (never as HTML), and the build pre-renders
 the same structure with escaped jinja2 templates, so what a user sees before
 and after the engine starts is laid out the same way.
 
-``display`` keys: ``headline`` (one sentence), ``verdict`` (``{class, label,
+``display`` keys: ``headline`` (one sentence), ``headline_confidence`` (the
+weakest confidence among the sources behind the headline, see
+:func:`weakest_confidence`; None when nothing graded lies behind it),
+``verdict`` (``{class, label,
 reason}`` or None), ``paragraphs`` (plain-language reading), ``rows`` (label,
 value, source), ``tables`` (title, columns, rows, note, filterable), ``charts``
 (title, svg, alt), ``warnings``, ``notes``.
@@ -14,16 +17,69 @@ value, source), ``tables`` (title, columns, rows, note, filterable), ``charts``
 
 from __future__ import annotations
 
+# Weakest first. "computed" (a formula applied by noblegap) is not a grade of
+# its own: a computed value is as strong as the inputs beside it.
+CONFIDENCE_ORDER = ("from-memory", "common-practice", "handbook-compiled", "published")
+
+CONFIDENCE_WORDS = {
+    "from-memory": "from memory (not confirmed against a published source)",
+    "common-practice": "common practice (a rule of thumb)",
+    "handbook-compiled": "handbook-compiled",
+    "published": "published",
+}
+
+
+def weakest_confidence(labelled_sources):
+    """The weakest grade among ``(label, source)`` pairs.
+
+    ``source`` is a citation dict (``confidence`` key) or None. Returns None if
+    no source carries a grade, else ``{"level", "words", "inputs"}`` with the
+    labels of the inputs at that level (in order, without repeats).
+
+    Example
+    -------
+    >>> weakest_confidence([("E°", {"confidence": "published"}),
+    ...                     ("density", {"confidence": "from-memory"})])["inputs"]
+    ['density']
+    >>> weakest_confidence([("x", {"confidence": "computed"})]) is None
+    True
+    """
+    graded = [(label, src["confidence"]) for label, src in labelled_sources
+              if isinstance(src, dict) and src.get("confidence") in CONFIDENCE_ORDER]
+    if not graded:
+        return None
+    level = min((c for _, c in graded), key=CONFIDENCE_ORDER.index)
+    inputs = []
+    for label, c in graded:
+        if c == level and label not in inputs:
+            inputs.append(label)
+    return {"level": level, "words": CONFIDENCE_WORDS[level], "inputs": inputs}
+
+
+def confidence_line(hc, limit=3):
+    """One sentence for a headline's weakest confidence (page and print alike)."""
+    if not hc:
+        return ""
+    names = hc["inputs"][:limit]
+    more = len(hc["inputs"]) - len(names)
+    tail = f" and {more} more" if more > 0 else ""
+    return f"Weakest source behind this result: {hc['words']} — {'; '.join(names)}{tail}."
+
 
 class Report:
     """Collects the display structure of one result."""
 
     def __init__(self):
-        self.d = {"headline": "", "verdict": None, "paragraphs": [], "rows": [],
-                  "tables": [], "charts": [], "warnings": [], "notes": []}
+        self.d = {"headline": "", "headline_confidence": None, "verdict": None,
+                  "paragraphs": [], "rows": [], "tables": [], "charts": [],
+                  "warnings": [], "notes": []}
+        self._basis = None
 
-    def headline(self, text):
+    def headline(self, text, basis=None):
+        """Set the headline. ``basis``: ``(label, source)`` pairs behind it; by
+        default every row's source and every table row's source count."""
         self.d["headline"] = text
+        self._basis = basis
         return self
 
     def verdict(self, cls, label, reason):
@@ -65,4 +121,14 @@ class Report:
         return self
 
     def to_dict(self):
+        basis = self._basis
+        if basis is None:
+            basis = [(r["label"], r["source"]) for r in self.d["rows"]]
+            for t in self.d["tables"]:
+                for row, src in zip(t["rows"], t["sources"] or []):
+                    basis.append((f"{t['title']}: {row[0] if row else ''}", src))
+        hc = weakest_confidence(basis)
+        if hc:
+            hc["line"] = confidence_line(hc)
+        self.d["headline_confidence"] = hc
         return self.d

@@ -177,6 +177,15 @@ function buildDisplay(d) {
     frag.appendChild(p);
   }
   frag.appendChild(el("p", "headline", d.headline));
+  const hc = d.headline_confidence;
+  if (hc) {
+    const basis = el("p", "headline-basis");
+    basis.dataset.confidence = hc.level;
+    basis.appendChild(el("span", `conf conf-${hc.level}`, hc.level));
+    basis.appendChild(document.createTextNode(" "));
+    basis.appendChild(el("span", "basis-text", hc.line));
+    frag.appendChild(basis);
+  }
   for (const w of d.warnings || []) frag.appendChild(el("p", "warning", `⚠ ${w}`));
   for (const p of d.paragraphs || []) frag.appendChild(el("p", "reading", p));
   if ((d.rows || []).length) {

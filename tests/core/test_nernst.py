@@ -8,8 +8,9 @@ from hypothesis import strategies as st
 
 from noblegap import api
 from noblegap.calculators import nernst as nernst_page
-from noblegap.methods import nernst
+from noblegap.materials import data
 from noblegap.materials.potentials import half_reaction, metal_ids
+from noblegap.methods import nernst
 from noblegap.errors import (ChoiceError, InputErrors, MissingDataError, RangeError,
                              UnitError)
 
@@ -144,14 +145,32 @@ def test_equal_concentration_cell_has_no_anode():
 
 
 def test_temperature_coefficient_on_and_off():
-    on = nernst_page.compute_nernst("Zn", "Al", "1 M", "1 M", temperature=308.15)
-    off = nernst_page.compute_nernst("Zn", "Al", "1 M", "1 M", temperature=308.15,
+    on = nernst_page.compute_nernst("Zn", "Ti", "1 M", "1 M", temperature=308.15)
+    off = nernst_page.compute_nernst("Zn", "Ti", "1 M", "1 M", temperature=308.15,
                                 temperature_coefficient="off")
     assert on["E0_a_V_SHE"] == pytest.approx(-0.7618 + 0.119e-3 * 10, abs=1e-12)
     assert off["E0_a_V_SHE"] == pytest.approx(-0.7618, abs=1e-12)
     assert on["temperature_coefficient_used"] == {"metal_a": True, "metal_b": False}
-    assert on["missing_temperature_coefficient"] == ["Al"]
-    assert any("Aluminium" in w for w in on["display"]["warnings"])
+    assert on["missing_temperature_coefficient"] == ["Ti"]
+    assert any("Titanium" in w for w in on["display"]["warnings"])
+
+
+def test_every_metal_in_common_use_has_a_coefficient():
+    # Only Mo3+/Mo and Ti2+/Ti lack an entropy in the compilation read.
+    E0 = data.index("half_reactions")
+    assert sorted(k for k, r in E0.items() if r["dE0dT_mV_per_K"] is None) == ["Mo", "Ti"]
+    for r in E0.values():
+        if r["dE0dT_mV_per_K"] is not None:
+            assert r["dEdT_source_id"] and r["dEdT_confidence"] and r["dEdT_locator"]
+
+
+def test_al_cu_at_80C_moves_with_both_coefficients():
+    # E°cell(T) = E°cell(25) + (k_Cu − k_Al)·ΔT: about 32 mV less at 80 °C.
+    r = nernst_page.compute_nernst("Al", "Cu", "1 M", "1 M", temperature=353.15)
+    E0 = data.index("half_reactions")
+    k = (E0["Cu"]["dE0dT_mV_per_K"] - E0["Al"]["dE0dT_mV_per_K"]) * 1e-3
+    assert r["E0_cell_V"] == pytest.approx(0.3419 + 1.662 + k * 55, abs=1e-12)
+    assert r["E0_cell_V"] < 0.3419 + 1.662 - 0.025
 
 
 def test_davies_activity_coefficients():

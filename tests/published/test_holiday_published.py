@@ -66,3 +66,28 @@ def test_nace_sp0274_voltage_exact_2_mm_is_1250_sqrt_78_74_mil():
 ])
 def test_astm_d5162_method_threshold_0_5_mm(text, method):
     assert coatings.test_method(units.parse(text, "length")) == method
+
+
+# The two spark-voltage formulas and the rule that picks one by film thickness.
+# Thick films: NACE SP0274, V = 1250·√T (T in mil) — a published value, checked
+# above at 11.18 kV for 80 mil. Thin films (up to 0.5 mm / 20 mil, e.g.
+# fusion-bonded epoxy): V = 525·√T, attributed to NACE SP0490 but NOT read —
+# it is labelled from memory and only its labelling and the rule are checked,
+# never the coefficient as a published value.
+def test_thick_film_formula_is_nace_sp0274_published():
+    row = coatings.holiday_test_rows()[coatings.HIGH_VOLTAGE]
+    assert row["source_id"] == "nace_sp0274" and row["confidence"] == "published"
+    assert row["k_V"] == pytest.approx(1250, abs=0.5)          # printed as 1250
+    assert coatings.spark_formula(units.parse("2 mm", "length")) == coatings.HIGH_VOLTAGE
+
+
+def test_thin_film_formula_is_labelled_from_memory_and_picked_for_thin_films():
+    row = coatings.holiday_test_rows()[coatings.THIN_FILM_SPARK]
+    assert row["source_id"] == "nace_sp0490" and row["confidence"] == "from-memory"
+    for text in ("0.25 mm", "16 mil", "20 mil"):
+        assert coatings.spark_formula(units.parse(text, "length")) == coatings.THIN_FILM_SPARK
+    assert coatings.spark_formula(units.parse("21 mil", "length")) == coatings.HIGH_VOLTAGE
+    opts = coatings.holiday_test(units.parse("16 mil", "length"))["spark_options"]
+    picked = [o for o in opts if o["applies"]]
+    assert [o["id"] for o in picked] == [coatings.THIN_FILM_SPARK]
+    assert "from memory" in picked[0]["source"]["text"]

@@ -13,8 +13,8 @@ from ..materials import data
 from ..materials.potentials import half_reaction, metal_ids
 from ..methods.nernst import (ACTIVITY_DAVIES, ACTIVITY_IDEAL, C_STANDARD_MOL_M3,
                               CODATA_CITE_ROW, COEFFICIENT_OFF, COEFFICIENT_ON,
-                              DAVIES_A_25C, DAVIES_CITE_ROW, DAVIES_LIMIT_MOL_L, T25_K,
-                              cell, davies_gamma, ion_charge, nernst_slope,
+                              DAVIES_CITE_ROW, DAVIES_LIMIT_MOL_L, T25_K,
+                              cell, davies_A, davies_A_sources, davies_gamma, ion_charge, nernst_slope,
                               parse_concentration, reversal, thermal_voltage)
 from ..report import Report
 from ..schema import CHOICE, QUANTITY, TEXT, Calculator, Field
@@ -64,7 +64,8 @@ def compute_nernst(metal_a, metal_b, conc_a, conc_b, temperature=T25_K,
     use_coef = temperature_coefficient == COEFFICIENT_ON
     z_a, z_b = ion_charge(ra["ion"]), ion_charge(rb["ion"])
     if activity == ACTIVITY_DAVIES:
-        g_a, g_b = davies_gamma(z_a, I_mol_L), davies_gamma(z_b, I_mol_L)
+        A_T = davies_A(T_K)
+        g_a, g_b = davies_gamma(z_a, I_mol_L, A_T), davies_gamma(z_b, I_mol_L, A_T)
     else:
         g_a = g_b = 1.0
     res = cell(ra, rb, c_a, c_b, T_K, g_a, g_b, use_coef)
@@ -186,10 +187,12 @@ def compute_nernst(metal_a, metal_b, conc_a, conc_b, temperature=T25_K,
             rep.warn(f"Ionic strength {units.fmt(I_mol_L, 'mol/L', 3)} is above the Davies "
                      f"equation's validity limit of about {DAVIES_LIMIT_MOL_L} mol/L: the "
                      "activity coefficients, and so the result, are rough.")
-        if off_25:
-            rep.warn(f"The Davies constant A = {DAVIES_A_25C} (mol/L)^−1/2 is its 25 °C "
-                     "value; A grows with temperature, so the activity correction away "
-                     "from 25 °C is approximate.")
+        A_T = davies_A(T_K)
+        rep.row(f"Davies constant A at {units.fmt(tC, '°C', 3)}", f"{A_T:.4f}",
+                {"source_id": "llnl_thermo", "confidence": "published",
+                 "text": "computed: A = 0.509 · A(T)/A(25 °C), A(T) interpolated in "
+                         "data/debye_huckel.csv — " +
+                         "; ".join(c["text"] for c in davies_A_sources(T_K))})
     else:
         if ionic_strength is not None:
             rep.note("Ideal activities (γ = 1): the ionic strength entered is not used.")

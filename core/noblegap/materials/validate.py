@@ -22,7 +22,9 @@ EXPECTED_ROWS = {
     "alloys": 55,
     "environments": 7,
     "half_reactions": 24,
-    "reference_electrodes": 7,
+    "reference_electrodes": 8,
+    "debye_huckel": 4,
+    "holiday_tests": 3,
 }
 
 # (column ending, low, high, what) — the physically sensible range of a value.
@@ -49,7 +51,65 @@ ENUMS = {
     ("alloys", "fastener_use"): ("yes", "no"),
     ("environments", "kind"): ("immersion", "atmospheric"),
     ("environments", "series_shift"): ("none", "approximate", "not-applicable"),
+    ("reference_electrodes", "dEdT_kind"): ("isothermal", "thermal", ""),
 }
+
+
+# Every value column and the prefix of the source columns that stand beside it:
+# a filled value needs ``<prefix>source_id``, a confidence (``<prefix>confidence``,
+# else the row's ``confidence``) and a locator (``<prefix>locator``, else the
+# row's ``locator`` for the main group, else the source's ``locator_hint``).
+VALUE_SOURCES = {
+    "alloys": {"E_noble_V_SCE": "", "E_active_V_SCE": "", "density_g_cm3": "density_",
+               "equivalent_weight_g_mol": "ew_", "anodic_index_V": "ai_"},
+    "environments": {"allowed_delta_V": "allowed_", "i_limit_A_m2": "",
+                     "band_width_mm": "band_"},
+    "half_reactions": {"E0_V_SHE": "", "cross_check_V": "cross_check_",
+                       "dE0dT_mV_per_K": "dEdT_"},
+    "reference_electrodes": {"E_V_SHE": "", "dEdT_mV_per_K": "dEdT_",
+                             "T_max_degC": "T_max_"},
+    "kinetics": {"i_corr_A_m2": "", "b_c_mV_per_decade": "", "b_a_mV_per_decade": "ba_"},
+    "coatings": {"a_fraction": "", "b_per_yr": ""},
+    "holiday_tests": {"k_V": "", "max_thickness_mm": ""},
+    "debye_huckel": {"A_sqrt_kg_per_mol": ""},
+}
+
+# Source kinds that need no locator (a rule of thumb; a value from memory).
+NO_LOCATOR_KINDS = ("practice", "memory")
+
+
+def _check_value_sources(name, header, rows, sources, filename):
+    """Each filled value names a known source, a confidence and a locator."""
+    for column, prefix in VALUE_SOURCES.get(name, {}).items():
+        if column not in header:
+            raise DataError(f"value column {column} listed in validate.VALUE_SOURCES "
+                            "is missing", file=filename)
+        for r in rows:
+            if r.get(column) is None:
+                continue
+            sid = r.get(f"{prefix}source_id") or ""
+            if not sid:
+                raise DataError(f"{column} has a value but {prefix}source_id is blank: "
+                                "name the source", file=filename, row=r["_row"],
+                                column=f"{prefix}source_id")
+            if sid not in sources:
+                raise DataError(f"source_id {sid!r} is not in sources.csv", file=filename,
+                                row=r["_row"], column=f"{prefix}source_id")
+            conf_col = f"{prefix}confidence" if f"{prefix}confidence" in header else "confidence"
+            if not r.get(conf_col):
+                raise DataError(f"{column} has a value but its confidence is blank "
+                                f"(one of {', '.join(data.CONFIDENCE)})", file=filename,
+                                row=r["_row"], column=conf_col)
+            loc_col = f"{prefix}locator" if f"{prefix}locator" in header else (
+                "locator" if not prefix and "locator" in header else None)
+            locator = (r.get(loc_col) or "") if loc_col else ""
+            hint = sources[sid].get("locator_hint") or ""
+            if sources[sid].get("kind") in NO_LOCATOR_KINDS:
+                continue
+            if not locator.strip() and hint.strip() in ("", "n/a"):
+                raise DataError(f"{column} cites {sid!r} without a locator (table, page or "
+                                "address): fill the locator or the source's locator_hint",
+                                file=filename, row=r["_row"], column=loc_col or column)
 
 
 def _is_number(text):
@@ -114,7 +174,13 @@ def validate_table(name, sources=None):
                                 file=filename, row=r["_row"], column="id")
             seen[r["id"]] = r["_row"]
     if name == "sources":
+        for r in rows:
+            for column in ("citation", "edition", "locator_hint", "kind"):
+                if not (r.get(column) or "").strip():
+                    raise DataError(f"every source needs a {column} ('n/a' where none "
+                                    "applies)", file=filename, row=r["_row"], column=column)
         return
+    _check_value_sources(name, header, rows, sources, filename)
     for r in rows:
         for column in header:
             value = r.get(column)

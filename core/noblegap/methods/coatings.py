@@ -16,10 +16,14 @@ year. Over a design life ``tf`` the mean and final factors are
 ``t1 = (1 − a)/b`` and stays there).
 
 Holiday testing (ASTM D5162): a low-voltage wet sponge for a total dry film up
-to 0.5 mm (20 mil), a high-voltage spark above it; the spark test voltage of
-NACE SP0274 is ``V = 1250·√T`` with T the dry film in mil. The bands and the
-coefficient are rows of ``data/holiday_tests.csv``; the breakdown constants by
-coating category and depth are rows of ``data/coatings.csv``.
+to 0.5 mm (20 mil), a high-voltage spark above it. Two spark voltages, one rule
+(:func:`spark_formula`): a thick film (over 0.5 mm) is tested at
+``V = 1250·√T`` (NACE SP0274); a thin film (up to 0.5 mm, e.g. fusion-bonded
+epoxy) that a specification wants spark-tested is tested at ``V = 525·√T``
+(the thin-film practice; its coefficient is marked from memory). T is the dry
+film in mil. The bands and coefficients are rows of ``data/holiday_tests.csv``;
+the breakdown constants by coating category and depth are rows of
+``data/coatings.csv``.
 
 Times here are in years (``_yr``) because the standard's constants are per
 year; thicknesses are in metres (SI), converted to mil only for the formula.
@@ -35,6 +39,8 @@ from ..materials import data
 
 LOW_VOLTAGE = "low_voltage_sponge"
 HIGH_VOLTAGE = "high_voltage_spark"
+THIN_FILM_SPARK = "thin_film_spark"
+SPARK_FORMULAS = (HIGH_VOLTAGE, THIN_FILM_SPARK)
 
 
 def category_ids():
@@ -165,24 +171,54 @@ def test_method(thickness_m):
     return LOW_VOLTAGE if thickness_m <= limit_m * (1 + 1e-12) else HIGH_VOLTAGE
 
 
-def spark_voltage_V(thickness_m):
-    """High-voltage spark test voltage V = k·√T, T in mil (NACE SP0274) [V].
+def spark_formula(thickness_m):
+    """Which spark-voltage formula applies to a dry film of ``thickness_m`` [m].
 
-    Parameters
-    ----------
-    thickness_m : float
-        Total dry film thickness [m].
+    The rule: a film thicker than the thin-film band (0.5 mm / 20 mil) takes
+    the thick-film formula 1250·√T; a film inside the band takes the thin-film
+    formula 525·√T.
 
     Example
     -------
-    >>> round(spark_voltage_V(units.convert(80, "mil", "m")))
-    11180
+    >>> spark_formula(0.4e-3), spark_formula(2e-3)
+    ('thin_film_spark', 'high_voltage_spark')
     """
     if not thickness_m > 0:
         raise RangeError("The coating thickness must be larger than zero.",
                          field="coating_thickness", value=thickness_m,
                          allowed="a dry film thickness > 0, e.g. 0.4 mm or 16 mil")
-    k_V = holiday_test_rows()[HIGH_VOLTAGE]["k_V"]
+    thin = holiday_test_rows()[THIN_FILM_SPARK]
+    limit_m = thin["max_thickness_mm"] * 1e-3
+    return THIN_FILM_SPARK if thickness_m <= limit_m * (1 + 1e-12) else HIGH_VOLTAGE
+
+
+def spark_voltage_V(thickness_m, formula=HIGH_VOLTAGE):
+    """Spark test voltage V = k·√T, T in mil [V].
+
+    Parameters
+    ----------
+    thickness_m : float
+        Total dry film thickness [m].
+    formula : str
+        ``high_voltage_spark`` (thick films, k = 1250, NACE SP0274) or
+        ``thin_film_spark`` (thin films, k = 525); :func:`spark_formula` picks
+        one by thickness.
+
+    Example
+    -------
+    >>> round(spark_voltage_V(units.convert(80, "mil", "m")))
+    11180
+    >>> round(spark_voltage_V(units.convert(16, "mil", "m"), THIN_FILM_SPARK))
+    2100
+    """
+    if not thickness_m > 0:
+        raise RangeError("The coating thickness must be larger than zero.",
+                         field="coating_thickness", value=thickness_m,
+                         allowed="a dry film thickness > 0, e.g. 0.4 mm or 16 mil")
+    if formula not in SPARK_FORMULAS:
+        raise RangeError(f"Unknown spark-voltage formula {formula!r}.", field="formula",
+                         value=formula, allowed=", ".join(SPARK_FORMULAS))
+    k_V = holiday_test_rows()[formula]["k_V"]
     return k_V * math.sqrt(units.convert(thickness_m, "m", "mil"))
 
 
@@ -199,7 +235,14 @@ def holiday_test(thickness_m):
     rows = holiday_test_rows()
     row = rows[method]
     voltage = spark_voltage_V(thickness_m) if method == HIGH_VOLTAGE else None
+    picked = spark_formula(thickness_m)
+    options = [{"id": f, "name": rows[f]["name"], "k_V": rows[f]["k_V"],
+                "voltage_V": spark_voltage_V(thickness_m, f), "applies": f == picked,
+                "source": data.cite(rows[f])} for f in SPARK_FORMULAS]
     return {
+        "spark_formula": picked,
+        "spark_voltage_V": spark_voltage_V(thickness_m, picked),
+        "spark_options": options,
         "test_method": method,
         "test_method_name": row["name"],
         "test_voltage_V": voltage,

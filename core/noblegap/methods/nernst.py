@@ -35,6 +35,7 @@ import re
 
 from .. import units
 from ..errors import InputError, MissingDataError, NoblegapError, RangeError, UnitError
+from ..materials import data
 
 T25_K = 298.15
 C_STANDARD_MOL_M3 = 1000.0          # standard concentration c° = 1 mol/L
@@ -45,8 +46,9 @@ ACTIVITY_DAVIES = "davies"
 ACTIVITY_METHODS = (ACTIVITY_IDEAL, ACTIVITY_DAVIES)
 
 # Davies (1962), Ion Association, p. 41: log10 γ = −A z² (√I/(1+√I) − 0.3 I).
-# A is the Debye–Hückel constant of water, 0.509 (mol/L)^-1/2 at 25 °C; it is
-# used at every temperature here (the page warns away from 25 °C).
+# A is the Debye–Hückel constant of water, 0.509 at 25 °C in Davies's book; its
+# temperature dependence (from the density and dielectric constant of water) is
+# taken from the tabulated A(T) in data/debye_huckel.csv, see davies_A.
 DAVIES_A_25C = 0.509
 DAVIES_LINEAR = 0.3
 DAVIES_LIMIT_MOL_L = 0.5
@@ -138,6 +140,57 @@ def electron_balance(n_a, n_b, nu_a=1, nu_b=1):
     """
     N = n_a * n_b // math.gcd(n_a, n_b)
     return N, nu_a * N // n_a, nu_b * N // n_b
+
+
+def davies_A(T_K):
+    """Debye–Hückel constant A of water at ``T_K`` for the Davies equation.
+
+    A(T) = 0.509 · A_tab(T) / A_tab(25 °C): Davies's own 25 °C value, carried to
+    other temperatures by the ratio of the tabulated A(T) of
+    ``data/debye_huckel.csv`` (piecewise linear between its rows, 0–100 °C).
+
+    Parameters
+    ----------
+    T_K : float
+        Temperature [K], 273.15 to 373.15.
+
+    Returns
+    -------
+    float
+        A [(kg/mol)^1/2, log10 basis].
+
+    Example
+    -------
+    >>> round(davies_A(298.15), 3)
+    0.509
+    >>> round(davies_A(333.15), 4)
+    0.5439
+
+    References
+    ----------
+    Davies, C. W., Ion Association (1962), p. 41; tabulated A(T): LLNL
+    thermo.com.V8.R6.230 as database/llnl.dat of PHREEQC (see data/sources.csv).
+    """
+    pts = sorted((r["T_degC"] + 273.15, r["A_sqrt_kg_per_mol"])
+                 for r in data.table("debye_huckel"))
+    a25 = dict((round(t, 2), a) for t, a in pts)[298.15]
+    T = min(max(T_K, pts[0][0]), pts[-1][0])
+    for (t0, a0), (t1, a1) in zip(pts, pts[1:]):
+        if t0 <= T <= t1:
+            return DAVIES_A_25C * (a0 + (a1 - a0) * (T - t0) / (t1 - t0)) / a25
+    return DAVIES_A_25C * pts[-1][1] / a25
+
+
+def davies_A_sources(T_K):
+    """Citations of the A(T) rows :func:`davies_A` interpolates between."""
+    rows = sorted(data.table("debye_huckel"), key=lambda r: r["T_degC"])
+    tC = T_K - 273.15
+    used = [r for r in rows if abs(r["T_degC"] - 25) < 1e-9]
+    for r0, r1 in zip(rows, rows[1:]):
+        if r0["T_degC"] <= tC <= r1["T_degC"]:
+            used += [r0, r1]
+            break
+    return [data.cite(r) for r in {r["id"]: r for r in used}.values()]
 
 
 def davies_gamma(z, I_mol_L, A=DAVIES_A_25C):
