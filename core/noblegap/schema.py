@@ -9,7 +9,6 @@ written twice.
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, field as dc_field
 from typing import Any, Callable
 
