@@ -624,7 +624,7 @@ def _dims_words(dims):
 
 
 def read(text, kind, *, field=None, default_unit=None, kinds=None, thread=False,
-         plain=False):
+         plain=False, what=None):
     """Read a user's quantity by the grammar below; return a :class:`Reading`.
 
     The grammar (nothing else is read, nothing is dropped):
@@ -660,6 +660,8 @@ def read(text, kind, *, field=None, default_unit=None, kinds=None, thread=False,
         Accept metric thread designations (a diameter field).
     plain : bool
         A plain number only: no unit, no % (a count, a coefficient).
+    what : str, optional
+        Words for the kinds together in messages (``"a concentration"``).
 
     Raises
     ------
@@ -717,7 +719,7 @@ def read(text, kind, *, field=None, default_unit=None, kinds=None, thread=False,
         raise _refuse("Expected a plain number, without a unit.", field, raw, kind)
     got = _kind_of(dims)
     if got not in kinds:
-        alts = " or ".join(_words(k) for k in kinds)
+        alts = what or " or ".join(_words(k) for k in kinds)
         raise UnitError(f"That is {_dims_words(dims)}, not {alts}.", field=field, value=raw,
                         allowed=f"units {KINDS[kind][2]}")
     si_unit = KINDS[got][0]

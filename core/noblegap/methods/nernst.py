@@ -242,7 +242,7 @@ def read_concentration(text, field="conc"):
     """
     try:
         return units.read(text, CONC_KINDS[0], kinds=CONC_KINDS, field=field,
-                          default_unit="mol/L")
+                          default_unit="mol/L", what="a concentration")
     except NoblegapError as exc:
         exc.field, exc.value = field, text
         exc.allowed = exc.allowed if isinstance(exc, RangeError) else CONC_ALLOWED
