@@ -161,7 +161,7 @@ class Field:
                 hit = self.resolve(text, self.key)
                 cid, note = (hit[0], hit[1:]) if isinstance(hit, tuple) else (hit, None)
                 label = dict(self.choice_list()).get(cid, cid)
-                return cid, (f"{label}: {note[0]}" if note else label), note
+                return cid, label, note
             ids = [cid for cid, _ in self.choice_list()]
             labels = dict(self.choice_list())
             if text in ids:
