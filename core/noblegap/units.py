@@ -118,6 +118,10 @@ LIMITS = {
                  "a number this close to zero is not a real value: enter 0"),
 }
 
+# A kind added to KINDS without its own limits still refuses the absurd.
+_GENERIC_LIMITS = (1e-300, 1e30, "the number is beyond any physical value",
+                   "a number this close to zero is not a real value: enter 0")
+
 # Characters people's keyboards and phones produce, read as their plain meaning.
 _TYPOGRAPHIC = {
     "\u2212": "-", "\u2013": "-", "\u2010": "-", "\u2011": "-", "\u2012": "-",
@@ -256,6 +260,10 @@ def _tokens(text, field, raw, kind):
                 if mant != 0 and (value == 0 or not math.isfinite(value)):
                     raise _refuse(f"{shown} is beyond the range of numbers computed with.",
                                   field, raw, kind, RangeError)
+            if 0 < abs(value) < 1e-300:
+                raise _refuse(f"{shown} is so close to zero that it is not a real value: "
+                              "enter 0 or a value of a physical size.", field, raw, kind,
+                              RangeError)
             toks.append(("num", value, shown, is_int))
             continue
         if ch in "*^":
@@ -485,8 +493,9 @@ def _factors(toks, field, raw, kind):
             raise _refuse(f"Two units in a row ({f['word']} {t[1]}): write them with / or * "
                           "(mm/yr).", field, raw, kind)
         if t[0] == "pow":
-            raise _refuse("A power belongs directly after a unit (m^2); powers of powers are "
-                          "not read.", field, raw, kind)
+            raise _refuse("A power belongs directly after a unit (m^2); powers of numbers "
+                          "and powers of powers are not read (write 1000 or 1e3).",
+                          field, raw, kind)
         raise _refuse("Not a number with a unit.", field, raw, kind)
     return sign, factors
 
@@ -739,7 +748,7 @@ def _check_limits(value, kind, field, raw, unit=None):
     if not math.isfinite(value):
         raise _refuse("The number is beyond the range of real values.", field, raw, kind,
                       RangeError)
-    lo, hi, why_hi, why_lo = LIMITS[kind]
+    lo, hi, why_hi, why_lo = LIMITS.get(kind, _GENERIC_LIMITS)
     mag = abs(value)
     if kind == "temperature":
         if value <= 0:
@@ -755,7 +764,7 @@ def _check_limits(value, kind, field, raw, unit=None):
 
 
 def _limit_text(kind, unit=None):
-    lo, hi = LIMITS[kind][:2]
+    lo, hi = LIMITS.get(kind, _GENERIC_LIMITS)[:2]
     si = KINDS[kind][0]
     if kind == "temperature":
         return "above absolute zero and below 10 000 K"
@@ -824,7 +833,7 @@ _EXAMPLES = {
 
 
 def _example(kind):
-    return _EXAMPLES[kind]
+    return _EXAMPLES.get(kind) or f"a number and a unit ({KINDS[kind][2]})"
 
 
 def convert(value, from_unit, to_unit):
