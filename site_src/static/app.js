@@ -297,7 +297,7 @@ function showReadAs(readAs) {
 
 function render(reply) {
   clearFieldErrors();
-  showReadAs(reply.result && reply.result.inputs_read);
+  showReadAs((reply.result || reply.response || {}).inputs_read);
   seq += 1;
   exampleLabel.hidden = true;
   const old = resultBody.querySelector(".result-error");

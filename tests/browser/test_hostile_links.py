@@ -35,3 +35,12 @@ def test_decimal_comma_is_echoed(page, server):
     page.goto(f"{server}/convert.html?potential={quote('-0,8 V')}")
     wait_live(page)
     assert page.inner_text("#r-potential") == "read as −0.8 V"
+
+
+def test_fields_read_well_keep_their_echo_while_another_field_is_wrong(page, server):
+    page.goto(f"{server}/fastener.html?diameter=M10&plate=bronze")
+    wait_live(page)
+    assert page.get_attribute("#result", "data-state") == "error"
+    assert "pick one" in page.inner_text("#e-plate")
+    assert "Silicon bronze" in page.inner_text("#e-plate")
+    assert "10 mm nominal diameter" in page.inner_text("#r-diameter")
