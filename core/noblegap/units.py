@@ -860,7 +860,7 @@ def fmt(value, unit="", sig=3):
     """Format a float with ``sig`` significant figures and a unit symbol.
 
     >>> fmt(-0.80123, "V")
-    '-0.801 V'
+    '−0.801 V'
     """
     if value is None:
         return "—"
