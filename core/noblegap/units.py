@@ -178,12 +178,15 @@ def _refuse(message, field, raw, kind, cls=None):
 
 def _char_problem(ch):
     import unicodedata
-    name = unicodedata.name(ch, "unnamed")
-    code = f"U+{ord(ch):04X} {name}"
+    name = unicodedata.name(ch, "")
+    code = f"U+{ord(ch):04X} {name}".strip()
     cat = unicodedata.category(ch)
     if cat == "Nd":
         return f"Only the digits 0–9 are read; the text holds another digit ({code})."
-    if cat in ("Cc", "Cf", "Cs", "Co", "Cn", "Zl", "Zp"):
+    if cat == "Cs":
+        return (f"The text holds a broken character ({code}, from bytes that are not "
+                "UTF-8); retype the value.")
+    if cat in ("Cc", "Cf", "Co", "Cn", "Zl", "Zp"):
         return (f"The text holds an invisible control character ({code}); retype the "
                 "value.")
     if cat in ("Mn", "Mc", "Me"):
