@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import importlib
 import math
+from collections.abc import Mapping
 
 from . import __version__
 from .errors import ChoiceError, InputError, NoblegapError, suggest
@@ -52,40 +53,113 @@ def get(calc):
     return reg[calc]
 
 
+def _jsonable(value):
+    """A raw input as it can be echoed in JSON (types no field reads become a tag)."""
+    if value is None or isinstance(value, (str, bool)):
+        return value
+    if isinstance(value, int):
+        return value if abs(value) < 2 ** 53 else f"<integer of {value.bit_length()} bits>"
+    if isinstance(value, float):
+        return value if math.isfinite(value) else None
+    return f"<{type(value).__name__}>"
+
+
+def _error(calc, raw, err, read_as=None):
+    out = {"ok": False, "calc": calc if isinstance(calc, str) else _jsonable(calc),
+           "inputs": raw, "error": err}
+    if read_as:
+        out["inputs_read"] = read_as
+    return out
+
+
+def _internal(calc, raw, exc):
+    return _error(calc, raw, {
+        "type": "InternalError", "kind": "internal", "field": None, "value": None,
+        "allowed": None, "label": None,
+        "message": ("The calculation failed unexpectedly "
+                    f"({type(exc).__name__}). Your inputs are kept; please report "
+                    "this page's link to the maintainers."),
+    })
+
+
 def run(calc, inputs=None):
     """Run calculator ``calc`` on raw ``inputs`` (strings as typed, or numbers).
+
+    Never raises, whatever it is given (a non-dict, bytes, nested values): a
+    bad request comes back as an error naming the field to change.
 
     Returns
     -------
     dict
-        ``{"ok": True, "calc", "inputs", "result"}`` where ``inputs`` are the raw
-        values used (defaults filled in), or ``{"ok": False, "calc", "inputs",
-        "error"}`` where ``error`` is :meth:`NoblegapError.to_dict`.
+        ``{"ok": True, "calc", "inputs", "inputs_read", "result"}`` where
+        ``inputs`` are the raw values used (defaults filled in) and
+        ``inputs_read`` says per field, in the user's units, what was read
+        (``{"diameter": "2.5 mm"}``); or ``{"ok": False, "calc", "inputs",
+        "error"}`` (with ``inputs_read`` of the fields that were read) where
+        ``error`` is :meth:`NoblegapError.to_dict`. No NaN or infinity.
     """
-    inputs = dict(inputs or {})
-    raw = inputs
+    try:
+        return _run(calc, inputs)
+    except Exception as exc:  # noqa: BLE001 - last line of defence, never a traceback
+        return _internal(calc, {}, exc)
+
+
+def _run(calc, inputs):
+    raw = {}
+    if not isinstance(calc, str):
+        err = ChoiceError(f"The calculator name must be text, got a {type(calc).__name__}.",
+                          field="calc", value=_jsonable(calc), allowed=", ".join(calculators()))
+        return _clean(_error(calc, raw, err.to_dict()))
+    if inputs is None:
+        inputs = {}
+    if not isinstance(inputs, Mapping):
+        err = InputError(f"The inputs must be pairs of field and value, got a "
+                         f"{type(inputs).__name__}.", value=f"<{type(inputs).__name__}>",
+                         allowed="a mapping such as {\"potential\": \"-0.80 V\"}")
+        return _clean(_error(calc, raw, err.to_dict()))
+    inputs = {k: v for k, v in inputs.items() if isinstance(k, str)}
+    read_as = {}
     try:
         calculator = get(calc)
-        raw = calculator.raw_inputs(inputs)
-        params = calculator.parse(inputs)
+        raw = {k: _jsonable(v) for k, v in calculator.raw_inputs(inputs).items()}
+        params, read_as, notes = calculator.read_all(inputs)
         result = calculator.compute(**params)
+        _add_read_notes(result, notes)
         return _clean({"ok": True, "calc": calc, "version": __version__,
-                       "inputs": raw, "result": result})
+                       "inputs": raw, "inputs_read": read_as, "result": result})
     except NoblegapError as exc:
-        return _clean({"ok": False, "calc": calc, "inputs": raw, "error": exc.to_dict()})
+        err = exc.to_dict()
+        keys = _field_keys(calc)
+        if err.get("field") is not None and keys and err["field"] not in keys:
+            # an internal quantity: no field on the page carries that name
+            err["field"] = None
+        return _clean(_error(calc, raw, err, getattr(exc, "read_as", None) or read_as))
     except OverflowError as exc:
         err = InputError("The values entered are too large or too small to compute with "
                          f"({type(exc).__name__}).", allowed="values of a physical size; "
                          "check the magnitudes and their units")
-        return _clean({"ok": False, "calc": calc, "inputs": raw, "error": err.to_dict()})
+        return _clean(_error(calc, raw, err.to_dict(), read_as))
     except Exception as exc:  # noqa: BLE001 - last line of defence, never a traceback
-        return {"ok": False, "calc": calc, "inputs": _clean(raw), "error": {
-            "type": "InternalError", "kind": "internal", "field": None, "value": None,
-            "allowed": None,
-            "message": ("The calculation failed unexpectedly "
-                        f"({type(exc).__name__}). Your inputs are kept; please report "
-                        "this page's link to the maintainers."),
-        }}
+        return _clean(_internal(calc, raw, exc))
+
+
+def _field_keys(calc):
+    try:
+        return {f.key for f in get(calc).fields}
+    except NoblegapError:
+        return set()
+
+
+def _add_read_notes(result, notes):
+    """Say on the result how a designation was read (316L taken as the 316 row)."""
+    display = result.get("display") if isinstance(result, dict) else None
+    if not notes or not isinstance(display, dict):
+        return
+    for text, warn in notes:
+        where = "warnings" if warn else "paragraphs"
+        items = display.setdefault(where, [])
+        if text not in items:
+            items.insert(0, text)
 
 
 def describe(calc=None):

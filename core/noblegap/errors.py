@@ -25,6 +25,8 @@ class NoblegapError(Exception):
     """
 
     kind = "error"
+    #: The label of the field on the page (set by the schema), for people.
+    label = None
 
     def __init__(self, message, *, field=None, value=None, allowed=None, hint=None):
         super().__init__(message)
@@ -51,6 +53,7 @@ class NoblegapError(Exception):
             "field": self.field,
             "value": None if self.value is None else str(self.value),
             "allowed": self.allowed,
+            "label": self.label,
         }
 
 
@@ -126,12 +129,13 @@ class InputErrors(NoblegapError, ValueError):
         n = len(self.errors)
         message = first.message if n == 1 else f"{n} inputs need attention; first: {first.message}"
         super().__init__(message, field=first.field, value=first.value, allowed=first.allowed)
+        self.label = first.label
 
     def __str__(self):
         if len(self.errors) == 1:
             return str(self.errors[0])
         return f"{len(self.errors)} inputs need attention: " + "; ".join(
-            f"{e.field}: {e}" for e in self.errors)
+            f"{e.label or e.field}: {e}" for e in self.errors)
 
     def to_dict(self):
         out = super().to_dict()

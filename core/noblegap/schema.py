@@ -9,7 +9,6 @@ written twice.
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, field as dc_field
 from typing import Any, Callable
 
@@ -54,6 +53,15 @@ class Field:
     optional: bool = False
     group: str = ""
     range_note: str = ""
+    thread: bool | None = None
+    reader: Callable | None = None
+
+    def reads_threads(self):
+        """Whether metric thread designations (M10) are read: a nominal diameter."""
+        if self.thread is not None:
+            return self.thread
+        return (self.kind == QUANTITY and self.quantity == "length"
+                and "nominal diameter" in self.label.lower())
 
     def choice_list(self):
         c = self.choices() if callable(self.choices) else self.choices
@@ -91,44 +99,93 @@ class Field:
 
     def parse(self, raw):
         """Parse one raw value; returns SI float, int, choice id, text or None."""
+        return self.read(raw)[0]
+
+    def read(self, raw):
+        """Parse one raw value; return ``(value, read_as)`` (see :meth:`read_note`)."""
+        return self.read_note(raw)[:2]
+
+    def read_note(self, raw):
+        """Parse one raw value; return ``(value, read_as, note)``.
+
+        ``read_as`` says in the user's own units what was read (``"2.5 mm"``,
+        ``"1200 mm × 800 mm = 0.96 m²"``), or None for an empty optional field.
+        Every error names this field (key and label) and what is allowed.
+        """
+        try:
+            out = self._read(raw)
+            return out if len(out) == 3 else (*out, None)
+        except NoblegapError as exc:
+            if exc.field is None or exc.field == self.key:
+                exc.field = self.key
+                exc.label = self.label
+            raise
+
+    def _read(self, raw):
+        if isinstance(raw, bool) or not (raw is None or isinstance(raw, (str, int, float))):
+            what = "true/false" if isinstance(raw, bool) else f"a {type(raw).__name__} value"
+            raise InputError(f"Expected text, got {what}.", field=self.key,
+                             value=what, allowed=self.allowed_text() or "text")
         text = raw if not isinstance(raw, str) else raw.strip()
         if text is None or text == "":
             if self.optional:
-                return None
+                return None, None
             raise InputError("This field is empty.", field=self.key, value="",
                              allowed=self.allowed_text())
         if self.kind == QUANTITY:
-            value = units.parse(text, self.quantity, field=self.key, default_unit=self.unit)
+            reading = units.read(text, self.quantity, field=self.key, default_unit=self.unit,
+                                 thread=self.reads_threads())
+            value, echo = reading.value, reading.text
+            if self.unit:
+                si = units.KINDS[self.quantity][0]
+                shown = units.show(units.convert(value, si, self.unit), self.unit)
+                if shown != echo and not echo.endswith("nominal diameter"):
+                    echo = f"{echo} = {shown}"
         elif self.kind in (INTEGER, NUMBER):
-            try:
-                value = float(str(text).replace("\u2212", "-"))
-            except ValueError:
-                raise InputError("Not a number.", field=self.key, value=raw,
-                                 allowed=self.allowed_text()) from None
-            if not math.isfinite(value):
-                raise InputError("The number is not finite.", field=self.key, value=raw,
-                                 allowed=self.allowed_text())
+            reading = units.read(text, "fraction", field=self.key, default_unit="", plain=True)
+            value, echo = reading.value, reading.text
             if self.kind == INTEGER:
                 if value != int(value):
                     raise InputError("Must be a whole number.", field=self.key, value=raw,
                                      allowed=self.allowed_text())
                 value = int(value)
         elif self.kind == CHOICE:
+            if not isinstance(text, str):
+                text = str(text)
+            if len(text) > units.MAX_LENGTH:
+                raise InputError(f"The text is {len(text)} characters long; a choice is at "
+                                 f"most {units.MAX_LENGTH}.", field=self.key,
+                                 value=text[:units.MAX_LENGTH] + "…",
+                                 allowed=self.allowed_text())
             if self.resolve is not None:
-                return self.resolve(text, self.key)
+                hit = self.resolve(text, self.key)
+                cid, note = (hit[0], hit[1:]) if isinstance(hit, tuple) else (hit, None)
+                label = dict(self.choice_list()).get(cid, cid)
+                return cid, label, note
             ids = [cid for cid, _ in self.choice_list()]
+            labels = dict(self.choice_list())
             if text in ids:
-                return text
+                return text, labels[text]
             folded = {cid.lower(): cid for cid in ids}
             if str(text).lower() in folded:
-                return folded[str(text).lower()]
+                cid = folded[str(text).lower()]
+                return cid, labels[cid]
             raise ChoiceError(f"{text!r} is not one of the choices for {self.label.lower()}.",
                               field=self.key, value=raw, allowed=", ".join(ids),
                               suggestions=suggest(text, ids))
         else:
-            return str(text)
+            text = str(text)
+            if len(text) > units.MAX_LENGTH:
+                raise InputError(f"The text is {len(text)} characters long; this field takes "
+                                 f"at most {units.MAX_LENGTH}.", field=self.key,
+                                 value=text[:units.MAX_LENGTH] + "…",
+                                 allowed=self.allowed_text() or "a short text")
+            echo = text
+            if self.reader is not None:
+                echo = self.reader(text, self.key)
+            return text, echo
         self._check_range(value, raw)
-        return value
+        return value, echo
 
     def _check_range(self, value, raw):
         if self.max is None and abs(value) > MAGNITUDE_LIMIT:
@@ -190,18 +247,43 @@ class Calculator:
 
     def parse(self, inputs):
         """Parse all inputs, collecting every field's error before raising."""
+        return self.read(inputs)[0]
+
+    def read(self, inputs):
+        """Parse all inputs; return ``(parsed, read_as)`` (see :meth:`read_all`)."""
+        return self.read_all(inputs)[:2]
+
+    def read_all(self, inputs):
+        """Parse all inputs; return ``(parsed, read_as, notes)``.
+
+        ``read_as`` maps each field read to what was read (:meth:`Field.read`);
+        ``notes`` are ``(sentence, is_warning)`` on how a designation was taken.
+
+        Every field's error is collected before raising :class:`InputErrors`,
+        which then carries ``read_as`` of the fields that were read.
+        """
         raw = self.raw_inputs(inputs)
-        parsed, errors = {}, []
+        parsed, read_as, notes, errors = {}, {}, [], []
         for f in self.fields:
             try:
-                parsed[f.key] = f.parse(raw[f.key])
+                parsed[f.key], echo, note = f.read_note(raw[f.key])
+                if echo is not None:
+                    read_as[f.key] = echo
+                if note:
+                    notes.append(note)
             except NoblegapError as exc:
                 errors.append(exc)
         if errors:
-            raise InputErrors(errors)
+            err = InputErrors(errors)
+            err.read_as = read_as
+            raise err
         if self.check is not None:
-            self.check(parsed)
-        return parsed
+            try:
+                self.check(parsed)
+            except NoblegapError as exc:
+                exc.read_as = read_as
+                raise
+        return parsed, read_as, notes
 
     def to_dict(self):
         return {

@@ -284,8 +284,30 @@ function showFieldError(err) {
   return true;
 }
 
+// "read as …" beside each typed field, from the core's inputs_read, so a misread cannot hide.
+function showReadAs(readAs) {
+  for (const key of fields.keys()) {
+    const c = control(key);
+    if (!c || c.tagName === "SELECT") continue;
+    let p = document.getElementById(`r-${key}`);
+    const text = readAs && readAs[key];
+    if (!p && text) {
+      p = el("p", "read-as");
+      p.id = `r-${key}`;
+      p.setAttribute("aria-live", "off");
+      c.insertAdjacentElement("afterend", p);
+    }
+    if (p) {
+      const show = text && text.trim() !== String(c.value).trim();
+      p.textContent = show ? `read as ${text}` : "";
+      p.hidden = !show;
+    }
+  }
+}
+
 function render(reply) {
   clearFieldErrors();
+  showReadAs((reply.result || reply.response || {}).inputs_read);
   seq += 1;
   exampleLabel.hidden = true;
   const old = resultBody.querySelector(".result-error");

@@ -21,7 +21,7 @@ def test_to_dict_crosses_json_intact():
     assert d == {"type": "ChoiceError", "kind": "input",
                  "message": "Unknown metal 'Zx'. Allowed: Zn, Cu. Did you mean: Zn?",
                  "field": "metal_a", "value": "Zx", "allowed": "Zn, Cu",
-                 "suggestions": ["Zn"]}
+                 "label": None, "suggestions": ["Zn"]}
 
 
 def test_input_errors_keep_every_field():

@@ -300,7 +300,7 @@ def test_no_coating_state_at_all():
 
 areas = st.floats(min_value=0.01, max_value=100.0)
 fractions = st.floats(min_value=1e-6, max_value=0.5)
-growth = st.floats(min_value=0.0, max_value=0.2)
+growth = st.floats(min_value=0.0, max_value=0.2).filter(lambda x: x == 0 or x >= 1e-12)  # tiny: refused
 
 
 @settings(max_examples=40, deadline=None)

@@ -71,14 +71,18 @@ def test_empty_and_garbage_are_input_errors():
         units.parse("(((", "potential", field="potential")
 
 
-@given(st.floats(min_value=-1e6, max_value=1e6, allow_nan=False))
+@given(st.floats(min_value=-1e6, max_value=1e6, allow_nan=False)
+       .filter(lambda x: x == 0 or abs(x) >= 1e-6))   # below 0.1 nm: refused, see LIMITS
 def test_millimetres_and_inches_agree(x):
     mm = units.parse(f"{x!r} mm", "length")
     inch = units.parse(f"{x / 25.4!r} in", "length")
     assert mm == pytest.approx(inch, rel=1e-9, abs=1e-15)
 
 
-@given(st.floats(min_value=-50, max_value=150, allow_nan=False))
+# Values within a hair of zero (5e-324 °C, 1e-306 °C) are refused by the grammar
+# with their own message (tests/core for hostile input); here: real temperatures.
+@given(st.one_of(st.just(0.0), st.floats(min_value=-50, max_value=150, allow_nan=False)
+                 .filter(lambda c: abs(c) >= 1e-9)))
 def test_celsius_fahrenheit_kelvin_agree(c):
     k = units.parse(f"{c!r} degC", "temperature")
     f = units.parse(f"{c * 9 / 5 + 32!r} degF", "temperature")

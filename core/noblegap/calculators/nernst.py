@@ -16,6 +16,7 @@ from ..methods.nernst import (ACTIVITY_DAVIES, ACTIVITY_IDEAL, C_STANDARD_MOL_M3
                               DAVIES_CITE_ROW, DAVIES_LIMIT_MOL_L, T25_K,
                               cell, davies_A, davies_A_sources, davies_gamma, ion_charge, nernst_slope,
                               parse_concentration, reversal, thermal_voltage)
+from ..methods.nernst import read_concentration
 from ..report import Report
 from ..schema import CHOICE, QUANTITY, TEXT, Calculator, Field
 from ..svg import Svg, nice_ticks, scale
@@ -385,7 +386,8 @@ def _conc_field(key, label, default, which):
     return Field(key, label, TEXT, default=default,
                  help=(f"Concentration of the {which} metal's ions: mol/L, mmol/L, M, "
                        "mol/kg, mg/L, µg/L or ppm by mass (dilute water, 1 kg/L)."),
-                 source="data/half_reactions.csv (ion molar mass)")
+                 source="data/half_reactions.csv (ion molar mass)",
+                 reader=lambda text, key: read_concentration(text, key).text)
 
 
 CALCULATORS = [

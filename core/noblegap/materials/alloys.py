@@ -50,7 +50,7 @@ def _ensure_valid():
     global _validated
     if not _validated:
         from . import validate
-        validate.validate_tables(("alloys", "environments"))
+        validate.validate_tables(("alloys", "environments", "alloy_designations"))
         _validated = True
 
 
@@ -119,7 +119,18 @@ def _label(row):
 
 
 def resolve_alloy(text, field="alloy", state=None):
-    """Map what a user typed to an alloy id.
+    """Map what a user typed to an alloy id (see :func:`resolve_alloy_note`)."""
+    hit = resolve_alloy_note(text, field, state)
+    return hit[0] if isinstance(hit, tuple) else hit
+
+
+def resolve_alloy_note(text, field="alloy", state=None):
+    """Map what a user typed to an alloy id, saying how a designation was taken.
+
+    Returns the id, or ``(id, sentence, is_warning)`` when the text was a
+    designation of ``data/alloy_designations.csv`` mapped to a series row
+    (``316L`` → ``S31600``: "316L is taken as 316 in the seawater galvanic
+    series."). See :func:`resolve_alloy` for the rest.
 
     Accepts an id (``S31600_active``, ``zinc``), a UNS number (``S31600``,
     ``UNS S31600``, ``s316-00``: the passive row unless ``state="active"``),
@@ -162,13 +173,22 @@ def resolve_alloy(text, field="alloy", state=None):
     if group:
         return _pick_state(group, state, field, text)
     # 3. a generic name or alias, exactly
+    if len(raw) > 80:
+        raise ChoiceError("That is too long for an alloy name.", field=field,
+                          value=raw[:80] + "…", allowed="an alloy id, a UNS number, a "
+                          "designation such as 316L, or a generic name")
     key = _norm(raw)
     exact = [r for r in rows if _norm(r["name"]) == key or key in
              [_norm(a) for a in r["aliases"].split(";") if a.strip()]]
     groups = {_group(r) for r in exact}
     if len(groups) == 1:
         return _pick_state(by_group[groups.pop()], state, field, text)
-    # 4. every word of the text appears in the name or aliases
+    # 4. a designation people write (316L, A4-70, 1.4401, 5083-H116, zinc-plated)
+    hit = _designation(raw, field)
+    if hit is not None:
+        sid = _pick_state(by_group[_group(_index()[hit[0]])], state, field, text)
+        return sid, hit[1], hit[2]
+    # 5. every word of the text appears in the name or aliases
     if not exact:
         words = key.split()
         exact = [r for r in rows
@@ -194,6 +214,62 @@ def resolve_alloy(text, field="alloy", state=None):
             sugg.append(names[c])
     raise ChoiceError(f"Unknown alloy {raw!r}.", field=field, value=text, allowed=allowed,
                       suggestions=sugg)
+
+
+_PREFIX_NUM = re.compile(r"^(?:uns|aisi|sae|type|grade|ss|en\s*aw|en|w\.?\s*nr\.?|"
+                         r"werkstoff(?:nummer)?|aa|al)[\s:.-]*(?=\d)", re.I)
+_PREFIX_ANY = re.compile(r"^(?:astm|uns)\s+", re.I)
+_TEMPER = re.compile(r"^(\d{4})[\s-]*(o|f|h\d{1,3}|t\d{1,4})$", re.I)
+
+
+def _dkey(text):
+    t = _norm(text).replace("galvanised", "galvanized")
+    t = re.sub(r"[^a-z0-9.]", "", t)
+    return t[:-5] if t.endswith("steel") and len(t) > 5 else t
+
+
+def designation_table():
+    """Rows of ``data/alloy_designations.csv`` (validated on first use)."""
+    _ensure_valid()
+    return data.table("alloy_designations")
+
+
+def _designation(raw, field):
+    """``(series id, sentence, is_warning)`` for a designation, or None.
+
+    Raises ChoiceError for an ambiguous name (bronze), with the choices.
+    """
+    rows = {_dkey(r["id"]): r for r in designation_table()}
+    row = rows.get(_dkey(raw))
+    stripped = raw.strip()
+    if row is None:
+        stripped = _PREFIX_ANY.sub("", _PREFIX_NUM.sub("", stripped))
+        temper = _TEMPER.match(stripped.replace("\u2013", "-"))
+        if temper:
+            stripped = temper.group(1)
+        if stripped == raw.strip():
+            return None
+        row = rows.get(_dkey(stripped))
+        if row is None:
+            try:
+                hit = resolve_alloy(stripped, field)
+            except ChoiceError:
+                return None
+            label = _label(alloy(hit))
+            extra = (" (the temper does not move an alloy in the galvanic series)"
+                     if temper else "")
+            return hit, f"{raw.strip()} is taken as {label} in the seawater galvanic series{extra}.", False
+    if row["choices"]:
+        choices = [c for c in row["choices"].split(";") if c]
+        names = "; ".join(_label(alloy(c)) for c in choices)
+        raise ChoiceError(f"{raw.strip()!r} matches several alloys of the galvanic series, with "
+                          f"different potentials; pick one: {names}.", field=field,
+                          value=raw, allowed="one of the alloys named", suggestions=choices)
+    sentence = (f"{raw.strip()} is taken as {row['taken_as']} in the seawater galvanic series"
+                f" ({_label(alloy(row['series_id']))}; mapping {row['confidence']}).")
+    if row["note"]:
+        sentence += " " + row["note"]
+    return row["series_id"], sentence, row["zinc_layer_mm"] is not None
 
 
 def alloy(alloy_id):
@@ -293,7 +369,7 @@ def potential_range(alloy_id, env_id="seawater_flowing", ref=SERIES_REF):
 def alloy_field(key, label, default, help="", optional=False):
     """A free-text-with-suggestions alloy input (id, UNS number or generic name)."""
     return Field(key, label, CHOICE, default=default, choices=alloy_choices,
-                 resolve=lambda text, field: resolve_alloy(text, field), widget="combo",
+                 resolve=lambda text, field: resolve_alloy_note(text, field), widget="combo",
                  help=help or "Generic name or UNS number, e.g. 316 stainless, S31600, "
                               "alloy 400, zinc.",
                  source="data/alloys.csv", optional=optional)

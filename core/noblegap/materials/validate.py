@@ -20,6 +20,7 @@ from ..errors import DataError
 # Row counts, pinned: change them together with the table.
 EXPECTED_ROWS = {
     "alloys": 55,
+    "alloy_designations": 47,
     "environments": 7,
     "half_reactions": 24,
     "reference_electrodes": 8,
@@ -226,6 +227,24 @@ def validate_tables(names):
     srcs = data.sources()
     for name in names:
         validate_table(name, srcs)
+        if name == "alloy_designations":
+            validate_designations()
+
+
+def validate_designations():
+    """Every designation names one series row (or, if ambiguous, its choices) that exists."""
+    filename = "alloy_designations.csv"
+    alloys = {r["id"] for r in data.table("alloys")}
+    for r in data.table("alloy_designations"):
+        choices = [c for c in (r["choices"] or "").split(";") if c]
+        if bool(r["series_id"]) == bool(choices):
+            raise DataError("give either series_id or choices (an ambiguous name), not both "
+                            "or neither", file=filename, row=r["_row"], column="series_id")
+        for ref in ([r["series_id"]] if r["series_id"] else choices):
+            if ref not in alloys:
+                raise DataError(f"{ref!r} is not an id in alloys.csv", file=filename,
+                                row=r["_row"], column="series_id" if r["series_id"] else
+                                "choices")
 
 
 def table_names():

@@ -34,7 +34,7 @@ import math
 import re
 
 from .. import units
-from ..errors import InputError, MissingDataError, NoblegapError, RangeError, UnitError
+from ..errors import InputError, MissingDataError, NoblegapError, RangeError
 from ..materials import data
 
 T25_K = 298.15
@@ -61,7 +61,6 @@ COEFFICIENT_ON, COEFFICIENT_OFF = "on", "off"
 CONC_ALLOWED = ("a positive concentration: mol/L, mmol/L, µmol/L, M, mM, mol/kg, "
                 "mg/L, µg/L, g/L, or ppm / mg/kg by mass (a bare number means mol/L)")
 
-_MOLAR = re.compile(r"(?<![A-Za-z])([mµμun]?)M\s*$")
 
 
 # --------------------------------------------------------------------------
@@ -263,27 +262,8 @@ def parse_concentration(text, molar_mass_g_mol=None, *, field="conc", ion=""):
     if text is None or (isinstance(text, str) and not text.strip()):
         raise InputError("This field is empty.", field=field, value="", allowed=CONC_ALLOWED)
     raw = str(text).strip()
-    cleaned = _MOLAR.sub(lambda m: f" {m.group(1)}mol/L", raw).strip()
-    try:
-        try:
-            bare = float(cleaned.replace("\u2212", "-"))
-        except ValueError:
-            bare = None
-        if bare is not None or isinstance(text, (int, float)):
-            kind = "molar_concentration"
-            value = units.parse(cleaned, kind, field=field, default_unit="mol/L")
-        else:
-            kind = units.dimension_of(cleaned)
-            if kind not in ("molar_concentration", "molality", "mass_concentration",
-                            "fraction"):
-                if kind is None:
-                    units.parse(cleaned, "molar_concentration", field=field)
-                raise UnitError(f"That is {_kind_words(kind)}, not a concentration.",
-                                field=field, value=raw, allowed=CONC_ALLOWED)
-            value = units.parse(cleaned, kind, field=field)
-    except NoblegapError as exc:
-        exc.field, exc.value, exc.allowed = field, raw, CONC_ALLOWED
-        raise
+    reading = read_concentration(raw, field)
+    value, kind = reading.value, reading.kind
     if not value > 0:
         raise RangeError("A concentration must be above zero: the logarithm in the Nernst "
                          "equation is undefined for zero or a negative amount.",
@@ -298,11 +278,28 @@ def parse_concentration(text, molar_mass_g_mol=None, *, field="conc", ion=""):
             "concentration cannot be turned into mol/L.", field=field, value=raw,
             allowed="a molar concentration (mol/L, mmol/L) or a molality (mol/kg)")
     kg_m3 = value if kind == "mass_concentration" else value * WATER_DENSITY_KG_M3
-    return kg_m3 / (molar_mass_g_mol * 1e-3) / C_STANDARD_MOL_M3, "mass"
+    mol_m3 = kg_m3 / (molar_mass_g_mol * 1e-3)
+    units.check_limits(mol_m3, "molar_concentration", field=field, raw=raw)
+    return mol_m3 / C_STANDARD_MOL_M3, "mass"
 
 
-def _kind_words(kind):
-    return f"a {kind.replace('_', ' ')}" if kind else "not a recognised quantity"
+CONC_KINDS = ("molar_concentration", "molality", "mass_concentration", "fraction")
+
+
+def read_concentration(text, field="conc"):
+    """Read a concentration as typed (see :func:`parse_concentration`): a
+    :class:`noblegap.units.Reading` whose ``kind`` is one of :data:`CONC_KINDS`.
+
+    >>> read_concentration("0.5 mM").text
+    '0.5 mmol/L'
+    """
+    try:
+        return units.read(text, CONC_KINDS[0], kinds=CONC_KINDS, field=field,
+                          default_unit="mol/L", what="a concentration")
+    except NoblegapError as exc:
+        exc.field, exc.value = field, text
+        exc.allowed = exc.allowed if isinstance(exc, RangeError) else CONC_ALLOWED
+        raise
 
 
 def cell(row_a, row_b, c_a_mol_L, c_b_mol_L, T_K=T25_K, gamma_a=1.0, gamma_b=1.0,
