@@ -18,6 +18,8 @@ whose galvanic-series use and allowed potential difference apply.
 
 from __future__ import annotations
 
+from functools import lru_cache
+
 from . import alloys, data
 from ..errors import ChoiceError, MissingDataError, suggest
 
@@ -55,8 +57,13 @@ def environment_choices():
 
 def resolve_environment(text, field="environment"):
     """Map an environment id or an old alias (``marine_splash`` → ``CX``) to an id."""
+    return _resolve(str(text or "").strip(), field)
+
+
+@lru_cache(maxsize=64)
+def _resolve(key, field):
     _ensure_valid()
-    key = str(text or "").strip()
+    text = key
     ids = {i.lower(): i for i, _, _ in environments()}
     if key.lower() in ids:
         return ids[key.lower()]
@@ -86,6 +93,7 @@ def triple(row, stem, suffix):
     return (row[f"{stem}_low_{suffix}"], row[f"{stem}_{suffix}"], row[f"{stem}_high_{suffix}"])
 
 
+@lru_cache(maxsize=256)
 def kinetics_row(alloy_id):
     """The ``data/cell_kinetics.csv`` row for an alloy: by id, then family and state.
 

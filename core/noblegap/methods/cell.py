@@ -50,11 +50,10 @@ bound); R → ∞ gives I → 0; equal free-corrosion potentials give I = 0.
 Where the current spreads
 -------------------------
 Galvanic current leaves the anode mostly within a distance λ of the joint.
-In a bulk electrolyte λ is the Wagner length κ·r_p (r_p = dE/dn of the anode
-at the operating point, Ω·m²); in a thin film of thickness h it is the
-transmission-line length √(κ·h·r_p). :func:`spread_length_m` gives λ;
-calculators take the anode's effective area within λ and iterate (a fixed
-point of a few solves).
+λ is where the ohmic drop in the electrolyte, going out from the joint,
+reaches the member's softness β = n/(dn/dE) (Wagner's criterion,
+:func:`spread_length_m`); the calculators take the member's effective area
+within λ and iterate (a fixed point of a few solves).
 
 Validity and what is left out: one uniform potential per electrode (a
 secondary current distribution is only represented by λ), steady state of a
@@ -98,8 +97,16 @@ LIMITS = {
 }
 
 
-def _pow10(x):
-    return math.exp(max(-_MAX_EXP, min(x, _MAX_EXP)) * _LOG10)
+_MAX_LN = _MAX_EXP * _LOG10
+
+
+def _exp(x):
+    """e**x, clipped far from any operating point so it never overflows."""
+    if x > _MAX_LN:
+        x = _MAX_LN
+    elif x < -_MAX_LN:
+        x = -_MAX_LN
+    return math.exp(x)
 
 
 @dataclass(frozen=True)
@@ -155,28 +162,39 @@ class Electrode:
                              field="i_corr_A_m2", value=self.i_corr_A_m2,
                              allowed=f"< i_L = {self.i_L_A_m2:g} A/m²")
 
+        # constants of the three laws, computed once (the solver calls them often)
+        set_ = object.__setattr__
+        set_(self, "_ka", _LOG10 / self.b_a_V)
+        set_(self, "_kc", _LOG10 / self.b_c_V)
+        set_(self, "_ix", self.i_corr_A_m2 / (1.0 - self.i_corr_A_m2 / self.i_L_A_m2))
+        start = None
+        if self.passive and self.E_b_V is not None:
+            start = max(self.E_b_V, self.E_corr_V)
+        set_(self, "_start", start)
+        kH = _LOG10 / self.b_H_V
+        set_(self, "_kH", kH)
+        set_(self, "_H0", self.i0_H_A_m2 * _exp(-(self.E_corr_V - self.E_H_V) * kH)
+             if self.i0_H_A_m2 > 0 else 0.0)
+
     # -- the three reactions -------------------------------------------
     def dissolution(self, E):
         """Metal dissolution current density at E [A/m²]."""
         if self.passive:
-            start = self.E_corr_V if self.E_b_V is None else max(self.E_b_V, self.E_corr_V)
-            if self.E_b_V is None or E <= start:
+            if self._start is None or E <= self._start:
                 return self.i_corr_A_m2
-            return self.i_corr_A_m2 * _pow10((E - start) / self.b_a_V)
-        return self.i_corr_A_m2 * _pow10((E - self.E_corr_V) / self.b_a_V)
+            return self.i_corr_A_m2 * _exp((E - self._start) * self._ka)
+        return self.i_corr_A_m2 * _exp((E - self.E_corr_V) * self._ka)
 
     def oxygen(self, E):
         """Oxygen-reduction current density at E, magnitude [A/m²]."""
-        i_x = self.i_corr_A_m2 / (1.0 - self.i_corr_A_m2 / self.i_L_A_m2)
-        act = i_x * _pow10(-(E - self.E_corr_V) / self.b_c_V)
+        act = self._ix * _exp(-(E - self.E_corr_V) * self._kc)
         return act / (1.0 + act / self.i_L_A_m2)
 
     def hydrogen(self, E):
         """Extra hydrogen evolution below E_corr, magnitude [A/m²]."""
         if self.i0_H_A_m2 <= 0 or E >= self.E_corr_V:
             return 0.0
-        return self.i0_H_A_m2 * (_pow10(-(E - self.E_H_V) / self.b_H_V)
-                                 - _pow10(-(self.E_corr_V - self.E_H_V) / self.b_H_V))
+        return self.i0_H_A_m2 * _exp(-(E - self.E_H_V) * self._kH) - self._H0
 
     def cathodic(self, E):
         return self.oxygen(E) + self.hydrogen(E)
@@ -275,7 +293,10 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-7, max_it
         else:
             hi = mid
         it += 1
-    Ea = 0.5 * (lo + hi)
+    # last step: interpolate h on the final bracket (the current is steep in E_a
+    # when most of the voltage is ohmic, so the midpoint alone would leave I·R off)
+    h_lo, h_hi = h(lo), h(hi)
+    Ea = lo + (hi - lo) * h_lo / (h_lo - h_hi) if h_lo > 0 > h_hi else 0.5 * (lo + hi)
     I = current(Ea)
     Ec = min(Ea + I * R_ohm, cathode.E_corr_V)
     i_d = anode.dissolution(Ea)
@@ -291,22 +312,47 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-7, max_it
                     driving, limit, frac)
 
 
-def spread_length_m(r_p_ohm_m2, resistivity_ohm_m, film_m=None):
-    """Distance over which galvanic current leaves the anode [m].
+def softness_V(electrode, E):
+    """β = n / (dn/dE) at E [V]: how far the potential must move to change the
+    net current by a factor e (b/ln 10 on a Tafel line; large on a plateau).
 
-    Bulk electrolyte: the Wagner length λ = r_p/ρ. Thin film of thickness h:
-    λ = √(r_p·h/ρ) (transmission line). Infinite r_p gives infinity.
-
-    >>> round(spread_length_m(0.02, 0.2), 3)
-    0.1
-    >>> round(spread_length_m(0.02, 0.2, film_m=1e-4) * 1000, 2)   # mm
-    3.16
+    >>> el = Electrode(-0.66, 0.086, 0.054, 0.12, 1.0)
+    >>> round(softness_V(el, -0.40), 4)          # ≈ b_a / ln 10 far up the anodic line
+    0.0235
     """
-    if math.isinf(r_p_ohm_m2) or resistivity_ohm_m <= 0:
+    n = abs(electrode.net(E))
+    dE = 1e-4
+    dn = abs(electrode.net(E + dE) - electrode.net(E - dE)) / (2 * dE)
+    if dn <= 0:
+        return math.inf
+    return n / dn if n > 0 else math.inf
+
+
+def spread_length_m(beta_V, current_A, resistivity_ohm_m, r0_m, film_m=None):
+    """Distance from a site's edge over which its galvanic current leaves the
+    surrounding member [m] (``current_A`` is the current of one site face).
+
+    The ohmic drop in the electrolyte between the site's edge (r₀) and r₀ + λ
+    equals the member's softness β (Wagner's criterion: the distribution is
+    set by the ratio of the kinetic to the ohmic potential variation):
+
+    * bulk (point source on an insulating plane, Φ(r) = I·ρ/(2π·r)):
+      I·ρ/(2π)·(1/r₀ − 1/(r₀+λ)) = β; λ = ∞ when I·ρ/(2π·r₀) ≤ β;
+    * thin film of thickness h (radial flow, Φ = I·ρ/(2π·h)·ln r):
+      λ = r₀·(exp(2π·h·β/(I·ρ)) − 1).
+
+    >>> round(spread_length_m(0.026, 1e-4, 3.3, 0.01, film_m=3e-5) * 1000, 3)   # mm
+    0.149
+    >>> spread_length_m(0.026, 1e-3, 0.2, 0.01)                  # bulk seawater: all of it
+    inf
+    """
+    if current_A <= 0 or resistivity_ohm_m <= 0 or math.isinf(beta_V):
         return math.inf
     if film_m is None:
-        return r_p_ohm_m2 / resistivity_ohm_m
-    return math.sqrt(r_p_ohm_m2 * film_m / resistivity_ohm_m)
+        k = 1.0 / r0_m - 2.0 * math.pi * beta_V / (current_A * resistivity_ohm_m)
+        return math.inf if k <= 0 else 1.0 / k - r0_m
+    x = 2.0 * math.pi * film_m * beta_V / (current_A * resistivity_ohm_m)
+    return math.inf if x > 700 else r0_m * math.expm1(x)
 
 
 def with_limit(electrode, i_L_A_m2):

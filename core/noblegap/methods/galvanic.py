@@ -22,8 +22,9 @@ electrolyte (primary distribution):
 * bulk: R = ρ/(4·r_site)/n + ρ/(4·r_surround) − [ρ/(π·D) for a joint at a
   centre distance D] (disks in an insulating plane, point-source
   superposition for the interaction);
-* thin film of thickness h: R = ρ/(2π·h) · ln((r₀ + λ)/r₀) / (n·faces)
-  (radial flow through the film out to the spread length λ).
+* thin film of thickness h: R = [ρ/(2π·h) · ln((r₀ + λ)/r₀) + ρ/(8π·h)] /
+  (n·faces): radial flow through the film out to the spread length λ, plus
+  the site's own film (a uniformly loaded disk drained at its rim).
 
 The surrounding member takes part only within λ of each site: effective area
 A_eff = min(A, n·faces·2π·λ·(r₀ + λ)), the area under an exponential fall-off
@@ -58,7 +59,7 @@ HOURS_PER_YEAR = 8760.0
 O2_DIFFUSIVITY_M2_S = 2.0e-9
 O2_CONCENTRATION_MOL_M3 = 0.25
 #: Fixed-point iterations of the spread length (change below 1 % ends early).
-SPREAD_ITERATIONS = 6
+SPREAD_ITERATIONS = 12
 #: Hydrogen evolution equilibrium at pH 8 on the SCE scale: −0.059·8 − 0.241 V.
 E_H_V_SCE = -0.0592 * 8.0 - 0.2412
 
@@ -187,7 +188,9 @@ class Layout:
     joint), each of wetted area ``site_area_m2 / sites`` and joint radius
     ``site_radius_m`` (r₀, where the surround begins); ``faces`` surround
     faces per site. ``distance_m`` is the gap between two separate members
-    (None: in contact / the site sits in the surround).
+    (None: in contact / the site sits in the surround). ``surrounds`` is
+    False when the larger member lies elsewhere (holidays facing a separate
+    cathode): then the whole larger member takes part and no spread applies.
     """
 
     site_role: str
@@ -197,6 +200,7 @@ class Layout:
     site_radius_m: float
     faces: int = 1
     distance_m: float | None = None
+    surrounds: bool = True
 
     def areas(self):
         """(A_anode, A_cathode) wetted totals."""
@@ -219,8 +223,13 @@ def resistance_ohm(layout, rho, A_surround_eff, film_m=None, lam=math.inf):
     if film_m is not None:
         r0 = layout.site_radius_m
         reach = lam if math.isfinite(lam) else math.sqrt(A_surround_eff / math.pi)
-        return rho / (2.0 * math.pi * film_m) * math.log((r0 + reach) / r0) / (
-            n * layout.faces)
+        faces = n * layout.faces
+        # the surround: radial flow out to λ; the site's own film: a uniformly
+        # loaded disk drained at its rim, ρ/(8π·h) per face; a gap d adds the
+        # radial path across it
+        gap = math.log((r0 + layout.distance_m) / r0) if layout.distance_m else 0.0
+        return (rho / (2.0 * math.pi * film_m) * (math.log((r0 + reach) / r0) + gap)
+                + rho / (8.0 * math.pi * film_m)) / faces
     r_site = electrolyte.equivalent_radius_m(layout.site_area_m2 / n)
     r_sur = electrolyte.equivalent_radius_m(A_surround_eff)
     R = electrolyte.disk_resistance_ohm(rho, r_site) / n + \
@@ -259,9 +268,13 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
     lay = Layout(layout.site_role, layout.sites,
                  A_an if layout.site_role == "anode" else A_ca,
                  A_ca if layout.site_role == "anode" else A_an,
-                 layout.site_radius_m, layout.faces, layout.distance_m)
+                 layout.site_radius_m, layout.faces, layout.distance_m, layout.surrounds)
     rho, film = elec["rho_ohm_m"], elec["film_m"]
-    lam = math.inf
+    # λ beyond the member's own size changes nothing: cap it there, start there,
+    # and damp the fixed point in log space (geometric mean of old and new)
+    lam_cap = math.sqrt(max(lay.surround_area_m2, 1e-12) / math.pi) if lay.surround_area_m2 \
+        else math.inf
+    lam = lam_cap if lay.surrounds else math.inf
     sol = None
     for _ in range(SPREAD_ITERATIONS):
         A_sur = _surround_area(lay, lam) if lay.surround_area_m2 > 0 else 0.0
@@ -273,15 +286,19 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
              (resistance_ohm(lay, rho, max(A_sur, 1e-12), film, lam) + R_extra_ohm)
              if A_c_eff > 0 else math.inf)
         sol = cell.solve(anode_el, cathode_el, A_a_eff, A_c_eff, R)
+        if not lay.surrounds or sol.current_A == 0:
+            break
         sur_el, E_sur = (cathode_el, sol.E_cathode_V) if lay.site_role == "anode" else \
             (anode_el, sol.E_anode_V)
-        new_lam = cell.spread_length_m(sur_el.slope_ohm_m2(E_sur), rho, film)
-        if math.isfinite(lam) and math.isfinite(new_lam) and abs(new_lam - lam) <= 0.01 * lam:
-            lam = new_lam
+        per_face = sol.current_A / (lay.sites * (lay.faces if film is not None else 1))
+        new_lam = min(lam_cap, cell.spread_length_m(cell.softness_V(sur_el, E_sur), per_face,
+                                                    rho, lay.site_radius_m, film))
+        if abs(math.log(new_lam / lam)) <= 0.02:
             break
-        lam = new_lam
+        lam = math.sqrt(lam * new_lam)
+    spread = lam if (lay.surrounds and lam < lam_cap) else math.inf
     return {"solution": sol, "A_anode_eff_m2": A_a_eff, "A_cathode_eff_m2": A_c_eff,
-            "A_anode_m2": A_an, "A_cathode_m2": A_ca, "R_ohm": R, "spread_m": lam,
+            "A_anode_m2": A_an, "A_cathode_m2": A_ca, "R_ohm": R, "spread_m": spread,
             "ohmic_limit_A": (sol.driving_V / R if R > 0 and math.isfinite(R) else math.inf)}
 
 
@@ -308,7 +325,7 @@ def anode_props(alloy_id, field):
 
 def assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
            allowance_of=None, design_life_yr=25.0, isolated=False, coat_anode=0.0,
-           coat_cathode=0.0, field_of=None):
+           coat_cathode=0.0, field_of=None, cases=CASES):
     """The whole assessment of one couple in one layout, all three cases.
 
     Parameters
@@ -346,8 +363,9 @@ def assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
     from_memory = any(r.get("confidence") == "from-memory" for r in (k_an, k_ca, env)) or \
         any(alloys.alloy(a)["confidence"] == "from-memory" for a in (an_id, ca_id))
     ra, rc = rule["range_anode"], rule["range_cathode"]
+    wanted = cases
     cases = {}
-    for case in CASES:
+    for case in wanted:
         elec = electrolyte_case(env_id, case, conductivity_S_m)
         # potentials: low = closest ends, likely = midpoints, high = farthest ends
         E_a = {"low": ra[0], "likely": 0.5 * sum(ra), "high": ra[1]}[case]
@@ -401,6 +419,8 @@ def assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
             "years_to_allowance": years.years, "life_status": years.status,
             "_electrodes": (a_el, c_el),
         }
+    for case in CASES:   # a case left out takes the likely numbers (alternatives)
+        cases.setdefault(case, cases["likely"])
     ys = tuple(cases[c]["years_to_allowance"] for c in CASES)
     cls, basis = judge(cases, rule, sev["allowed_delta_V"], design_life_yr,
                        isolated=isolated)
