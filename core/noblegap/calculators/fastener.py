@@ -204,6 +204,8 @@ def report(n):
                  "the range, not the single figure, as the result.")
     for w in alloys.applicability(a["series_env"]):
         rep.warn(w)
+    for w in members.known_gaps(a):
+        rep.warn(w)
     rep.note("Geometry: each fastener is taken as a disk of its wetted area in the plate's "
              "plane for the electrolyte's resistance (R = ρ/(4r)); the plate takes part "
              "within the spread length of each fastener face.")
@@ -275,15 +277,15 @@ CALCULATORS = [
                   choices=_kind_choices,
                   help="Sets the estimated wetted area and the plate faces it bears on."),
             Field("diameter", "Nominal diameter", QUANTITY, default="10 mm",
-                  quantity="length", unit="mm", max=1.0, help="e.g. 10 mm or 3/8 in.",
-                  range_note="It must be positive.", **_POS),
+                  quantity="length", unit="mm", min=1e-4, max=1.0,
+                  help="e.g. 10 mm or 3/8 in.", range_note="From 0.1 mm to 1 m."),
             Field("count", "Number of fasteners", INTEGER, default=12, min=1, max=1e6,
                   range_note="At least one fastener."),
             Field("fastener_area", "Wetted area per fastener (optional)", QUANTITY,
                   quantity="area", unit="mm**2", optional=True,
                   help="Leave empty to estimate it from the diameter (approximate "
-                       "proportions, stated with the result).",
-                  range_note="It must be positive.", **_POS),
+                       "proportions, stated with the result).", min=1e-8,
+                  range_note="At least 0.01 mm²."),
             Field("plate_area", "Wetted plate area", QUANTITY, default="1.2 m * 0.8 m",
                   quantity="area", unit="m**2",
                   help="An area (0.96 m²) or a product such as 1.2 m * 0.8 m * 2 (both "

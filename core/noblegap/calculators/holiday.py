@@ -426,6 +426,8 @@ def report(n):
                  "figure, as the result.")
     for w in alloys.applicability(a["series_env"]):
         rep.warn(w)
+    for w in members.known_gaps(a):
+        rep.warn(w)
     for note in n["notes"]:
         rep.note(note)
     if n["holiday_diameter_assumed"]:
@@ -538,7 +540,8 @@ CALCULATORS = [
                   quantity="area", unit="m**2", min=0.0, min_inclusive=False,
                   group="Inspection", help="Empty: the whole coated area."),
             Field("holiday_diameter", "Holiday diameter", QUANTITY, optional=True,
-                  quantity="length", unit="mm", min=0.0, min_inclusive=False,
+                  quantity="length", unit="mm", min=1e-5, max=1.0,
+                  range_note="From 0.01 mm (a pinhole) to 1 m.",
                   group="Inspection", help="Typical diameter of a holiday."),
             Field("exposed_area", "Total exposed area", QUANTITY, optional=True,
                   quantity="area", unit="mm**2", min=0.0, group="Inspection",

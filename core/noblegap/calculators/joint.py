@@ -110,6 +110,8 @@ def report(n):
                  "figure, as the result.")
     for w in alloys.applicability(a["series_env"]):
         rep.warn(w)
+    for w in members.known_gaps(a):
+        rep.warn(w)
     rep.note("Geometry: the smaller member is taken as a disk of its wetted area in an "
              "insulating plane (R = ρ/(4r)), the larger takes part within the spread length "
              "of the joint" + ("; the distance between them enters as the interaction of two "

@@ -87,6 +87,38 @@ def conductivity_from(conductivity, resistivity):
 
 
 # ---------------------------------------------------------------------------
+# Where the honest model and the plausibility table disagree (tests/test_plausibility.py)
+# ---------------------------------------------------------------------------
+
+#: Couples for which the project's plausibility table (a recalled band of field
+#: experience, not a published value) and the model disagree. Shown on the
+#: page beside the result; the model is never tuned to close the gap.
+KNOWN_GAPS = (
+    {"anode_family": "aluminium", "cathode_family": "stainless steel",
+     "environments": ("seawater_flowing", "seawater_quiescent", "brackish"),
+     "band_mm_per_yr": (0.1, 1.0),
+     "text": ("Field experience recalled by the project puts the local attack of aluminium "
+              "around passive stainless fasteners in seawater at 0.1–1 mm/yr. This model "
+              "gives less ({rate}): seawater conducts well enough that its current spreads "
+              "over the whole plate, and it does not model the crevice and pitting attack "
+              "under fastener heads that concentrates the loss in service. Treat the "
+              "figure as the spread-out lower bound.")},
+)
+
+
+def known_gaps(a):
+    """Sentences for the page where the result falls in a known disagreement."""
+    an, ca = alloys.alloy(a["anode"]), alloys.alloy(a["cathode"])
+    out = []
+    for g in KNOWN_GAPS:
+        if (an["family"] == g["anode_family"] and ca["family"] == g["cathode_family"]
+                and a["env"]["id"] in g["environments"] and a["galvanic"]
+                and a["likely"]["local_mm_per_yr"] < g["band_mm_per_yr"][0]):
+            out.append(g["text"].format(rate=rate_text(a["likely"]["local_mm_per_yr"])))
+    return out
+
+
+# ---------------------------------------------------------------------------
 # Alternatives and mitigations (numbers)
 # ---------------------------------------------------------------------------
 
@@ -453,7 +485,7 @@ def polarization_svg(a):
     svg.polyline(pts(lambda E: -A_c * c_el.net(E), E_lo, c_el.E_corr_V - 1e-4),
                  stroke=_CATHODE, width=2)
     iL = A_c * c_el.i_L_A_m2
-    if x_lo < math.log10(iL) < x_hi:
+    if iL > 0 and x_lo < math.log10(iL) < x_hi:
         svg.line(x(math.log10(iL)), T, x(math.log10(iL)), H - B, stroke=_CATHODE, dash="4 4")
         svg.text(x(math.log10(iL)) - 4, T + 12, "oxygen limit", size=10, anchor="end",
                  fill=_CATHODE)

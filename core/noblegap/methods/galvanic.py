@@ -47,7 +47,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 
 from .. import units, verdicts
-from ..errors import InputError, MissingDataError
+from ..errors import InputError, MissingDataError, NoblegapError
 from ..materials import alloys, cell_data
 from . import cell, electrolyte, faraday
 
@@ -323,7 +323,21 @@ def anode_props(alloy_id, field):
     return row
 
 
-def assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
+def assess(*args, **kwargs):
+    """See :func:`_assess`; arithmetic that fails on values far outside any real
+    joint (a domain error, a division by zero) becomes an :class:`InputError`."""
+    try:
+        return _assess(*args, **kwargs)
+    except NoblegapError:
+        raise
+    except (ValueError, ZeroDivisionError, OverflowError) as exc:
+        raise InputError("The sizes entered are too small or too large to compute a "
+                         f"galvanic cell with ({type(exc).__name__}).",
+                         allowed="sizes of a real joint: millimetres to metres, "
+                                 "square millimetres to hundreds of square metres") from None
+
+
+def _assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
            allowance_of=None, design_life_yr=25.0, isolated=False, coat_anode=0.0,
            coat_cathode=0.0, field_of=None, cases=CASES):
     """The whole assessment of one couple in one layout, all three cases.
