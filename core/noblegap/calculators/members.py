@@ -265,16 +265,24 @@ def range_text(a, key="local_mm_per_yr"):
     return f"{rate_text(li)} (range {units.fmt(lo, '', 2)}–{units.fmt(hi, 'mm/yr', 2)})"
 
 
+def allowance_phrase(y, status):
+    """'allowance used in 12.3 years' or 'allowance lasts beyond 1000 years'."""
+    if y is None:
+        return ("no loss of the allowance" if status == faraday.LIFE_NO_ATTACK else
+                f"allowance lasts beyond {faraday.BEYOND_YEARS:.0f} years")
+    return f"allowance used in {years_text(y, status)}"
+
+
 def headline(a, where):
     """One sentence: the local rate with its range, years to the allowance, mark."""
     lk = a["likely"]
     mark = f" [{FROM_MEMORY_MARK}]" if a["from_memory"] else ""
     an = alloys.alloy(a["anode"])["name"]
+    when = allowance_phrase(a["years"][1], lk["life_status"])
     if not a["galvanic"] or a["isolated"]:
         return (f"No galvanic current. {an} loses {range_text(a)} by its own corrosion"
-                f"{mark}; allowance used in {years_text(a['years'][1], lk['life_status'])}.")
-    return (f"{an} {where}: {range_text(a)} locally{mark}; allowance used in "
-            f"{years_text(a['years'][1], lk['life_status'])}.")
+                f"{mark}; {when}.")
+    return f"{an} {where}: {range_text(a)} locally{mark}; {when}."
 
 
 def verdict_reason(a):

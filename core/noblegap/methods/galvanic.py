@@ -380,6 +380,9 @@ def _assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
     wanted = cases
     cases = {}
     for case in wanted:
+        if (case == "high" and "low" not in wanted and "likely" in cases
+                and not _lasts(cases["likely"], design_life_yr)):
+            continue   # the verdict is already "avoid"; the high case cannot change it
         elec = electrolyte_case(env_id, case, conductivity_S_m)
         # potentials: low = closest ends, likely = midpoints, high = farthest ends
         E_a = {"low": ra[0], "likely": 0.5 * sum(ra), "high": ra[1]}[case]
