@@ -503,7 +503,7 @@ def compute_holiday(coated, other, environment, coated_side, holiday_count, insp
 
 
 def _category_choices():
-    return [(_CATEGORY_NONE, "None (the holidays found only, or a bare couple)")] + \
+    return [(_CATEGORY_NONE, "None (holidays found only, or bare)")] + \
         coatings.category_ids()
 
 

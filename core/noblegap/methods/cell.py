@@ -238,7 +238,7 @@ class Solution:
         return LIMITS[self.limit]
 
 
-def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-7, max_iter=200):
+def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-6, max_iter=200):
     """Galvanic current and electrode potentials of a two-member cell.
 
     Parameters
@@ -286,7 +286,10 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-7, max_it
         return -A_cathode_m2 * cathode.net(Ea + I * R_ohm) - I
 
     it = 0
-    while hi - lo > tol_V and it < max_iter:
+    # stop when both electrode potentials are bracketed to tol_V: E_a directly, and
+    # E_c = E_a + I·R, which a large R makes far more sensitive to E_a
+    while it < max_iter and (hi - lo > tol_V or
+                             (current(hi) - current(lo)) * R_ohm > tol_V):
         mid = 0.5 * (lo + hi)
         if h(mid) > 0:
             lo = mid

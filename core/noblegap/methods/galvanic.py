@@ -58,8 +58,10 @@ HOURS_PER_YEAR = 8760.0
 #: current through a film, i_L = 4·F·D·c/h. Values recalled (from memory).
 O2_DIFFUSIVITY_M2_S = 2.0e-9
 O2_CONCENTRATION_MOL_M3 = 0.25
-#: Fixed-point iterations of the spread length (change below 1 % ends early).
+#: Fixed-point iterations of the spread length; a relative change of λ below
+#: SPREAD_TOLERANCE ends early (results are exact to about that fraction).
 SPREAD_ITERATIONS = 12
+SPREAD_TOLERANCE = 0.02
 #: Hydrogen evolution equilibrium at pH 8 on the SCE scale: −0.059·8 − 0.241 V.
 E_H_V_SCE = -0.0592 * 8.0 - 0.2412
 
@@ -293,7 +295,7 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
         per_face = sol.current_A / (lay.sites * (lay.faces if film is not None else 1))
         new_lam = min(lam_cap, cell.spread_length_m(cell.softness_V(sur_el, E_sur), per_face,
                                                     rho, lay.site_radius_m, film))
-        if abs(math.log(new_lam / lam)) <= 0.02:
+        if abs(math.log(new_lam / lam)) <= SPREAD_TOLERANCE:
             break
         lam = math.sqrt(lam * new_lam)
     spread = lam if (lay.surrounds and lam < lam_cap) else math.inf
