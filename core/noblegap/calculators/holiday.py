@@ -470,6 +470,12 @@ def report(n):
                 str(n["ranking"].index(s["side"]) + 1)] for s in n["scenarios"]],
               note="Likely rates; the years integrate the rate as the coating breaks down.",
               key="scenarios")
+    rep.chart("Likely rate over the design life, the four choices",
+              members.lines_svg([(SIDE_LABELS[sc["side"]], sc["timeline"])
+                                 for sc in n["scenarios"]], "years in service",
+                                "Likely rate over the design life"),
+              "The likely local rate of each coating choice as the coating breaks down, on "
+              "a log scale; a choice with no exposed anode sits on the axis floor.")
     if a["galvanic"] and not n["no_exposed_anode"]:
         rep.chart("Polarization diagram", members.polarization_svg(a),
                   "Potential against log current: anode and cathode curves, the ohmic drop "

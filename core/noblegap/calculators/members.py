@@ -537,6 +537,41 @@ def falloff_svg(points, x_label, title):
     return str(svg)
 
 
+_SERIES = ("#b3261e", "#1f6f43", "#1d4f91", "#b07d12")
+
+
+def lines_svg(series, x_label, title):
+    """Several rate curves on a log rate axis: ``series`` [(label, [(x, mm_per_yr)])].
+    Zero rates sit on the axis floor and are named in the legend."""
+    W, H = 640, 280
+    L, R, T, B = 60, 20, 20, 70
+    svg = Svg(W, H, title)
+    xs = [x for _, pts in series for x, _ in pts]
+    pos = [y for _, pts in series for _, y in pts if y > 0]
+    x_hi = max(xs) if xs and max(xs) > 0 else 1.0
+    y_hi = math.ceil(math.log10(max(pos))) if pos else 0
+    y_lo = min(math.floor(math.log10(min(pos))), y_hi - 1) if pos else -1
+    x = scale(0.0, x_hi, L, W - R)
+    y = scale(y_lo, y_hi, H - B, T)
+    svg.line(L, T, L, H - B, stroke="#555")
+    svg.line(L, H - B, W - R, H - B, stroke="#555")
+    for d in range(int(y_lo), int(y_hi) + 1):
+        svg.line(L - 4, y(d), L, y(d), stroke="#555")
+        svg.text(L - 6, y(d) + 4, units.fmt(10.0 ** d, "", 1), size=10, anchor="end")
+    for t in nice_ticks(0.0, x_hi, 6):
+        svg.line(x(t), H - B, x(t), H - B + 4, stroke="#555")
+        svg.text(x(t), H - B + 16, units.fmt(t, "", 3), size=10, anchor="middle")
+    svg.text((L + W - R) / 2, H - B + 32, x_label, size=11, anchor="middle", fill="#444")
+    svg.text(14, T + 4, "mm/yr (log)", size=11, fill="#444")
+    for k, (label, pts) in enumerate(series):
+        colour = _SERIES[k % len(_SERIES)]
+        line = [(x(px), y(max(math.log10(py), y_lo) if py > 0 else y_lo)) for px, py in pts]
+        svg.polyline(line, stroke=colour, width=2, dash="6 4" if k % 2 else None)
+        svg.text(L + 8 + (k % 2) * 290, H - 22 + (k // 2) * 14, f"— {label}", size=10,
+                 fill=colour)
+    return str(svg)
+
+
 def spread_points(a):
     """(distance from the joint's edge [mm], local rate [mm/yr]) on the surround anode."""
     lk = a["likely"]
