@@ -273,7 +273,11 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
                  layout.site_radius_m, layout.faces, layout.distance_m, layout.surrounds)
     rho, film = elec["rho_ohm_m"], elec["film_m"]
     # λ beyond the member's own size changes nothing: cap it there, start there,
-    # and damp the fixed point in log space (geometric mean of old and new)
+    # and damp the fixed point in log space (geometric mean of old and new). The
+    # fixed point need not be unique (a cathode near its free potential is "stiff",
+    # on its oxygen plateau "soft"); starting from the whole member and damping
+    # finds the one with the larger area, which keeps "a larger cathode never
+    # lowers the anode's rate" (tests/test_fasteners.py); undamped steps did not.
     lam_cap = math.sqrt(max(lay.surround_area_m2, 1e-12) / math.pi) if lay.surround_area_m2 \
         else math.inf
     lam = lam_cap if lay.surrounds else math.inf
