@@ -16,7 +16,8 @@ from . import __version__
 from .errors import ChoiceError, InputError, NoblegapError, suggest
 
 # Modules that define CALCULATORS (a list of schema.Calculator), in page order.
-CALCULATOR_MODULES = ("convert", "couple", "series", "nernst", "fastener", "holiday")
+CALCULATOR_MODULES = ("convert", "couple", "series", "nernst", "fastener", "holiday",
+                      "joint")
 
 _REGISTRY = None
 

@@ -38,6 +38,10 @@ KINDS = {
     "rate": ("m/s", "[length] / [time]", "mm/yr, mpy"),
     "mass": ("kg", "[mass]", "g, kg, mg"),
     "fraction": ("", "", "a plain number, %, ppm"),
+    "conductivity": ("S/m", "[current] ** 2 * [time] ** 3 / [mass] / [length] ** 3",
+                     "S/m, mS/cm, µS/cm"),
+    "resistivity": ("ohm*m", "[mass] * [length] ** 3 / [time] ** 3 / [current] ** 2",
+                    "ohm*m, ohm*cm"),
 }
 
 # Constants taken, by name, from pint's CODATA constants file.
@@ -832,6 +836,7 @@ _EXAMPLES = {
     "molar_concentration": "0.1 mol/L", "molality": "0.1 mol/kg",
     "mass_concentration": "5 mg/L", "time": "20 year", "rate": "0.1 mm/yr",
     "mass": "10 g", "fraction": "0.5",
+    "conductivity": "200 µS/cm", "resistivity": "25 ohm*m",
 }
 
 

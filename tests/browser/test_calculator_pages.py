@@ -120,3 +120,33 @@ def test_holiday_url_reproduces(page, server):
     wait_live(page)
     assert page.inner_text("#result .headline") == \
         api.run("holiday", inputs)["result"]["display"]["headline"]
+
+
+def test_joint_page_computes_and_a_shared_url_reproduces_it(page, server):
+    page.goto(f"{server}/joint.html")
+    wait_live(page)
+    assert page.locator("#result .verdict").count() == 1
+    titles = page.locator("#result .table-block h3").all_inner_texts()
+    assert any("second member" in t.lower() for t in titles)
+    assert any("mitigation" in t.lower() for t in titles)
+    assert _chart_painted(page, 0)
+    calc = api.get("joint")
+    inputs = calc.raw_inputs(calc.example)
+    inputs.update({"first": "carbon steel", "first_area": "50 m²", "second": "C95800",
+                   "second_area": "0.2 m²", "environment": "seawater_flowing",
+                   "distance": "50 mm"})
+    page.goto(f"{server}/joint.html?{urlencode(inputs)}")
+    wait_live(page)
+    expected = api.run("joint", inputs)["result"]["display"]
+    assert page.inner_text("#result .headline") == expected["headline"]
+    assert page.text_content("#result .verdict-label") == expected["verdict"]["label"]
+
+
+def test_old_environment_link_opens_the_fastener_page(page, server):
+    calc = api.get("fastener")
+    inputs = calc.raw_inputs(calc.example)
+    inputs["environment"] = "marine_splash"
+    page.goto(f"{server}/fastener.html?{urlencode(inputs)}")
+    wait_live(page)
+    expected = api.run("fastener", inputs)["result"]["display"]["headline"]
+    assert page.inner_text("#result .headline") == expected

@@ -26,6 +26,9 @@ EXPECTED_ROWS = {
     "reference_electrodes": 8,
     "debye_huckel": 4,
     "holiday_tests": 3,
+    "electrolytes": 4,
+    "atmospheres": 6,
+    "cell_kinetics": 23,
 }
 
 # (column ending, low, high, what) — the physically sensible range of a value.
@@ -39,6 +42,8 @@ RANGES = (
     ("_degC", -273.15, 1000.0, "a temperature"),
     ("_A_m2", 0.0, 1.0e5, "a current density"),
     ("_mA_m2", 0.0, 1.0e8, "a current density"),
+    ("_S_m", 0.0, 100.0, "a conductivity"),
+    ("_psu", 0.0, 42.0, "a practical salinity"),
     ("_mm", 0.0, 1.0e5, "a length"),
     ("_m", 0.0, 1.0e5, "a length"),
 )

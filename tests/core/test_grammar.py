@@ -191,8 +191,8 @@ def test_one_and_a_half_inches_is_not_half_an_inch():
     a = api.run("fastener", {"diameter": "1 1/2 in"})
     b = api.run("fastener", {"diameter": "38.1 mm"})
     assert a["ok"] and b["ok"]
-    assert a["result"]["penetration_mm_per_yr"] == pytest.approx(
-        b["result"]["penetration_mm_per_yr"])
+    assert a["result"]["local_mm_per_yr"] == pytest.approx(
+        b["result"]["local_mm_per_yr"])
 
 
 def test_ten_inches_is_not_ten_millimetres():

@@ -1,0 +1,145 @@
+"""Tables of the galvanic-cell model: electrolytes, atmospheres, kinetics.
+
+* ``data/electrolytes.csv`` — immersion environments: how the conductivity is
+  found (``pss78`` from salinity and temperature, or a measured ``range``) and
+  the oxygen limiting current density, each as low / likely / high.
+* ``data/atmospheres.csv`` — the corrosivity categories C1 … CX of ISO 9223
+  with a typical time of wetness, the electrolyte film (thickness and
+  conductivity) and the standard's first-year rates for carbon steel, zinc,
+  copper and aluminium. ``aliases`` lists older environment ids that now open
+  the category, so old links keep working.
+* ``data/cell_kinetics.csv`` — polarization parameters by alloy id (``match``
+  lists ids separated by ``;``) or by galvanic-series family
+  (``family:<family>`` or ``family:<family>:<state>``).
+
+Every environment names a ``series_env``: the row of ``data/environments.csv``
+whose galvanic-series use and allowed potential difference apply.
+"""
+
+from __future__ import annotations
+
+from functools import lru_cache
+
+from . import alloys, data
+from ..errors import ChoiceError, MissingDataError, suggest
+
+IMMERSION, ATMOSPHERIC = "immersion", "atmospheric"
+CASES = ("low", "likely", "high")
+#: ISO 9223 first-year rate columns by the family of alloys they bound.
+ISO_FAMILIES = {"steel": "steel", "cast iron": "steel", "zinc": "zinc",
+                "zinc-coated steel": "zinc", "copper": "copper", "aluminium": "aluminium"}
+#: Density of aluminium [g/cm³] to turn the standard's g/(m²·a) into µm/a
+#: (CRC 80th ed. value 2.6989 as reproduced in the periodictable package).
+AL_DENSITY_G_CM3 = 2.6989
+
+_validated = False
+
+
+def _ensure_valid():
+    global _validated
+    if not _validated:
+        from . import validate
+        validate.validate_tables(("electrolytes", "atmospheres", "cell_kinetics"))
+        _validated = True
+
+
+def environments():
+    """Every cell environment as ``[(id, name, kind)]``, immersion first."""
+    _ensure_valid()
+    out = [(r["id"], r["name"], IMMERSION) for r in data.table("electrolytes")]
+    out += [(r["id"], r["name"], ATMOSPHERIC) for r in data.table("atmospheres")]
+    return out
+
+
+def environment_choices():
+    return [(i, n) for i, n, _ in environments()]
+
+
+def resolve_environment(text, field="environment"):
+    """Map an environment id or an old alias (``marine_splash`` → ``CX``) to an id."""
+    return _resolve(str(text or "").strip(), field)
+
+
+@lru_cache(maxsize=64)
+def _resolve(key, field):
+    _ensure_valid()
+    text = key
+    ids = {i.lower(): i for i, _, _ in environments()}
+    if key.lower() in ids:
+        return ids[key.lower()]
+    for r in data.table("atmospheres"):
+        if key.lower() in [a.strip().lower() for a in r["aliases"].split(";") if a.strip()]:
+            return r["id"]
+    raise ChoiceError(f"Unknown environment {key!r}.", field=field, value=text,
+                      allowed=", ".join(ids.values()), suggestions=suggest(key, list(ids.values())))
+
+
+def environment(env_id):
+    """The row of a cell environment with ``kind`` added (immersion/atmospheric)."""
+    env_id = resolve_environment(env_id)
+    idx = data.index("electrolytes")
+    if env_id in idx:
+        return dict(idx[env_id], kind=IMMERSION)
+    return dict(data.index("atmospheres")[env_id], kind=ATMOSPHERIC)
+
+
+def series_environment(env_id):
+    """The ``data/environments.csv`` row whose series use and allowed ΔV apply."""
+    return alloys.environment(environment(env_id)["series_env"])
+
+
+def triple(row, stem, suffix):
+    """(low, likely, high) of columns ``stem_low_suffix``, ``stem_suffix``, ``stem_high_suffix``."""
+    return (row[f"{stem}_low_{suffix}"], row[f"{stem}_{suffix}"], row[f"{stem}_high_{suffix}"])
+
+
+@lru_cache(maxsize=256)
+def kinetics_row(alloy_id):
+    """The ``data/cell_kinetics.csv`` row for an alloy: by id, then family and state.
+
+    Raises
+    ------
+    MissingDataError
+        No row matches (names the alloy and the families the table covers).
+    """
+    _ensure_valid()
+    row = alloys.alloy(alloy_id)
+    rows = data.table("cell_kinetics")
+    for r in rows:
+        if alloy_id in r["match"].split(";"):
+            return r
+    fam_state = f"family:{row['family']}:{row['state']}"
+    for r in rows:
+        if r["match"] == fam_state:
+            return r
+    for r in rows:
+        if r["match"] == f"family:{row['family']}":
+            return r
+    raise MissingDataError(
+        f"No polarization data for {row['name']} ({alloy_id}) in data/cell_kinetics.csv, "
+        "so its rate cannot be computed.", field="alloy", value=alloy_id,
+        allowed="an alloy whose family has a row: "
+                + ", ".join(sorted({r['match'] for r in rows})))
+
+
+def iso_band_um_per_yr(env_id, alloy_id):
+    """ISO 9223 first-year rate band (low, high) [µm/yr] of the alloy's family, or None."""
+    env = environment(env_id)
+    if env["kind"] != ATMOSPHERIC:
+        return None
+    key = ISO_FAMILIES.get(alloys.alloy(alloy_id)["family"])
+    if key is None:
+        return None
+    if key == "aluminium":
+        lo, hi = env["aluminium_low_g_m2_per_yr"], env["aluminium_high_g_m2_per_yr"]
+        return lo / AL_DENSITY_G_CM3, hi / AL_DENSITY_G_CM3
+    return env[f"{key}_low_um_per_yr"], env[f"{key}_high_um_per_yr"]
+
+
+def cite_env(env_id):
+    """Citations of a cell environment's rows (conductivity, i_L, wetness, rates)."""
+    env = environment(env_id)
+    if env["kind"] == IMMERSION:
+        return {"conductivity": data.cite(env), "i_L": data.cite(env, "iL_")}
+    return {"wetness": data.cite(env, "tow_"), "film": data.cite(env, "film_"),
+            "iso_rates": data.cite(env)}

@@ -1,0 +1,159 @@
+"""The galvanic-cell model (noblegap.methods.cell, .galvanic, .electrolyte): the
+limits physics guarantees, as property tests."""
+
+import math
+
+import pytest
+from hypothesis import given, settings, strategies as st
+
+from noblegap.errors import InputError
+from noblegap.methods import cell, electrolyte, faraday, galvanic
+
+STEEL = dict(E_corr_V=-0.66, i_corr_A_m2=0.086, b_a_V=0.054, b_c_V=0.12, i_L_A_m2=1.0,
+             i0_H_A_m2=1e-3)
+BRONZE = dict(E_corr_V=-0.18, i_corr_A_m2=0.009, b_a_V=0.06, b_c_V=0.12, i_L_A_m2=1.0)
+ALUMINIUM = dict(E_corr_V=-0.88, i_corr_A_m2=0.001, b_a_V=0.06, b_c_V=0.12, i_L_A_m2=1.0,
+                 passive=True, E_b_V=-0.75)
+STAINLESS = dict(E_corr_V=-0.05, i_corr_A_m2=1e-4, b_a_V=0.06, b_c_V=0.12, i_L_A_m2=1.0,
+                 passive=True, E_b_V=0.2)
+
+
+def el(**kw):
+    return cell.Electrode(**kw)
+
+
+def test_free_electrode_balances_at_its_corrosion_potential():
+    for kw in (STEEL, BRONZE, ALUMINIUM, STAINLESS):
+        e = el(**kw)
+        assert e.net(e.E_corr_V) == pytest.approx(0.0, abs=1e-12)
+        assert e.net(e.E_corr_V + 0.05) > 0 > e.net(e.E_corr_V - 0.05)
+
+
+@settings(max_examples=40, deadline=None)
+@given(A_a=st.floats(1e-6, 10.0), A_c=st.floats(1e-4, 100.0), R=st.floats(0.0, 1e4))
+def test_solution_balances_charge_and_ohmic_drop(A_a, A_c, R):
+    a, c = el(**STEEL), el(**BRONZE)
+    s = cell.solve(a, c, A_a, A_c, R)
+    assert a.E_corr_V <= s.E_anode_V <= s.E_cathode_V <= c.E_corr_V
+    assert A_a * a.net(s.E_anode_V) == pytest.approx(s.current_A, rel=1e-3, abs=1e-12)
+    assert s.E_cathode_V - s.E_anode_V == pytest.approx(s.current_A * R, rel=1e-3, abs=1e-5)
+    # the three shares of the driving voltage add up
+    assert s.eta_anode_V + s.eta_cathode_V + s.ohmic_V == pytest.approx(s.driving_V, abs=1e-5)
+    # the anode's dissolution splits exactly into galvanic and local-cell parts
+    assert s.i_galvanic_A_m2 + s.i_local_A_m2 == pytest.approx(s.i_anode_A_m2, rel=1e-9)
+
+
+@settings(max_examples=30, deadline=None)
+@given(A_a=st.floats(1e-3, 10.0), A_c=st.floats(1e-3, 100.0), i_L=st.floats(0.05, 5.0))
+def test_zero_resistance_and_fast_anode_give_the_catchment_rule(A_a, A_c, i_L):
+    # an active anode whose own corrosion is the oxygen limit (i_corr → i_L) and whose
+    # dissolution is fast (b_a → 0), with no resistance and a cathode far enough above
+    # it to be at its oxygen limit (the rule's own assumption): i_a = i_L·(A_c + A_a)/A_a
+    anode = el(E_corr_V=-0.70, i_corr_A_m2=i_L * (1 - 1e-9), b_a_V=1e-4, b_c_V=0.12,
+               i_L_A_m2=i_L)
+    cathode = el(E_corr_V=1.0, i_corr_A_m2=1e-4, b_a_V=0.06, b_c_V=0.12, i_L_A_m2=i_L)
+    s = cell.solve(anode, cathode, A_a, A_c, 0.0)
+    expected = faraday.catchment_current_density(i_L, A_c, A_a)
+    assert s.i_anode_A_m2 == pytest.approx(expected, rel=2e-3)
+    assert s.limit == cell.LIMIT_CATHODE
+
+
+@settings(max_examples=30, deadline=None)
+@given(A_a=st.floats(1e-4, 10.0), A_c=st.floats(1e-4, 100.0), R=st.floats(0.0, 1e3))
+def test_the_catchment_rule_is_an_upper_bound(A_a, A_c, R):
+    a, c = el(**STEEL), el(**BRONZE)
+    s = cell.solve(a, c, A_a, A_c, R)
+    assert s.i_anode_A_m2 <= faraday.catchment_current_density(1.0, A_c, A_a) * (1 + 1e-6)
+
+
+def test_infinite_resistance_gives_no_current_and_huge_tends_to_none():
+    a, c = el(**STEEL), el(**BRONZE)
+    assert cell.solve(a, c, 1.0, 1.0, math.inf).current_A == 0.0
+    currents = [cell.solve(a, c, 1.0, 1.0, R).current_A for R in (1e2, 1e4, 1e6, 1e8)]
+    assert currents == sorted(currents, reverse=True)
+    assert currents[-1] < 1e-8
+
+
+def test_equal_potentials_give_no_current():
+    a = el(**STEEL)
+    c = el(**dict(BRONZE, E_corr_V=STEEL["E_corr_V"]))
+    s = cell.solve(a, c, 1.0, 10.0, 0.0)
+    assert s.current_A == 0.0 and s.limit == cell.LIMIT_NONE
+
+
+@settings(max_examples=40, deadline=None)
+@given(A_a=st.floats(1e-6, 10.0), A_c=st.floats(1e-4, 50.0), k=st.floats(1.0, 100.0),
+       R=st.floats(0.0, 1e3), pair=st.sampled_from([(STEEL, BRONZE), (ALUMINIUM, STAINLESS),
+                                                     (STEEL, STAINLESS)]))
+def test_larger_cathode_never_lowers_the_anode_rate(A_a, A_c, k, R, pair):
+    a, c = el(**pair[0]), el(**pair[1])
+    small = cell.solve(a, c, A_a, A_c, R)
+    large = cell.solve(a, c, A_a, A_c * k, R)
+    assert large.i_anode_A_m2 >= small.i_anode_A_m2 * (1 - 1e-6)
+
+
+@settings(max_examples=40, deadline=None)
+@given(r=st.floats(0.5e-3, 20e-3), shrink=st.floats(0.05, 0.99), A_c=st.floats(0.01, 50.0),
+       rho=st.floats(0.15, 500.0))
+def test_smaller_holiday_never_draws_more_total_current(r, shrink, A_c, rho):
+    a, c = el(**STEEL), el(**BRONZE)
+
+    def current(radius):
+        R = electrolyte.disk_resistance_ohm(rho, radius) + \
+            electrolyte.disk_resistance_ohm(rho, electrolyte.equivalent_radius_m(A_c))
+        return cell.solve(a, c, math.pi * radius ** 2, A_c, R).current_A
+    assert current(r * shrink) <= current(r) * (1 + 1e-6)
+
+
+def test_passive_anode_is_active_above_its_breakdown_potential():
+    e = el(**ALUMINIUM)
+    assert e.dissolution(-0.80) == e.i_corr_A_m2
+    assert e.dissolution(-0.75 + 0.06) == pytest.approx(10 * e.i_corr_A_m2)   # one decade
+
+
+def test_own_corrosion_comes_from_the_own_kinetics_not_the_oxygen_limit():
+    # issue 16: passive aluminium's own corrosion was taken at i_L; here it is i_pass
+    e = el(**ALUMINIUM)
+    assert e.dissolution(e.E_corr_V) == pytest.approx(0.001)
+    assert e.dissolution(e.E_corr_V) < e.i_L_A_m2 / 100
+
+
+def test_bad_electrodes_are_refused():
+    with pytest.raises(InputError, match="below the oxygen limiting"):
+        el(**dict(STEEL, i_corr_A_m2=2.0))
+    with pytest.raises(InputError, match="needs a wetted area"):
+        cell.solve(el(**STEEL), el(**BRONZE), 0.0, 1.0, 1.0)
+
+
+def test_spread_length_shrinks_with_more_current_and_lower_conductivity():
+    lam = [cell.spread_length_m(0.026, I, 3.0, 0.01, film_m=3e-5) for I in (1e-5, 1e-4, 1e-3)]
+    assert lam == sorted(lam, reverse=True)
+    assert cell.spread_length_m(0.026, 1e-4, 0.2, 0.01) == math.inf
+
+
+def test_anode_rule_is_one_rule_for_both_orders():
+    a = galvanic.anode_rule("S31600", "A95083", "seawater_flowing")
+    b = galvanic.anode_rule("A95083", "S31600", "seawater_flowing")
+    assert a["anode"] == b["anode"] == "A95083"
+    assert a["delta_V"] == b["delta_V"]
+    lo, likely, hi = a["delta_V"]
+    assert 0 <= lo <= likely <= hi
+
+
+def test_same_alloy_is_no_couple():
+    r = galvanic.anode_rule("carbon_steel", "carbon_steel", "seawater_flowing")
+    assert not r["galvanic"] and r["delta_V"] == (0.0, 0.0, 0.0)
+
+
+def test_cases_are_ordered_low_likely_high():
+    lay = galvanic.Layout("anode", 1, math.pi * 25e-6, 10.0, 5e-3, surrounds=False)
+    for env in ("seawater_flowing", "brackish", "freshwater", "C3", "CX"):
+        a = galvanic.assess("carbon_steel", "C95800", env, lambda rule: lay,
+                            allowance_of=lambda _a: (1e-3, None))
+        lo, li, hi = (a["cases"][c]["local_mm_per_yr"] for c in galvanic.CASES)
+        assert lo <= li <= hi, env
+
+
+def test_film_oxygen_limit_follows_ficks_law():
+    # i_L = 4·F·D·c/h is inversely proportional to the film thickness
+    assert galvanic.film_limit_A_m2(1e-5) == pytest.approx(10 * galvanic.film_limit_A_m2(1e-4))
