@@ -11,7 +11,7 @@ from __future__ import annotations
 import importlib
 import math
 
-from . import __version__
+from . import __version__, units
 from .errors import ChoiceError, InputError, NoblegapError, suggest
 
 # Modules that define CALCULATORS (a list of schema.Calculator), in page order.
@@ -64,8 +64,10 @@ def run(calc, inputs=None):
     """
     inputs = dict(inputs or {})
     raw = inputs
+    token = None
     try:
         calculator = get(calc)
+        token = units.set_system(display_system(calculator, inputs))
         raw = calculator.raw_inputs(inputs)
         params = calculator.parse(inputs)
         result = calculator.compute(**params)
@@ -86,6 +88,36 @@ def run(calc, inputs=None):
                         f"({type(exc).__name__}). Your inputs are kept; please report "
                         "this page's link to the maintainers."),
         }}
+    finally:
+        if token is not None:
+            units.reset_system(token)
+
+
+#: The input key of the display-units option (not a calculator field): it
+#: rides in the link and on the command line like any input.
+UNITS_KEY = "units"
+
+
+def display_system(calculator, inputs):
+    """Pop the ``units`` option from ``inputs``; return ``"si"`` or ``"us"``.
+
+    ``si`` or ``us`` is the user's choice; empty or ``auto`` follows what the
+    user typed (inches in, inches out). An unknown value is an input error.
+    """
+    if UNITS_KEY in calculator.field_map():
+        return units.typed_system(v for v in inputs.values())
+    choice = inputs.pop(UNITS_KEY, None)
+    choice = "" if choice is None else str(choice).strip().lower()
+    if choice in ("", "auto"):
+        return units.typed_system(inputs.values())
+    aliases = {"si": units.SI, "metric": units.SI, "us": units.US, "imperial": units.US,
+               "us customary": units.US}
+    if choice not in aliases:
+        raise ChoiceError(f"{choice!r} is not a units choice.", field=UNITS_KEY,
+                          value=choice, allowed="; ".join(units.SYSTEMS.values()) +
+                          "; or leave it empty to follow the units you type",
+                          suggestions=suggest(choice, list(aliases)))
+    return aliases[choice]
 
 
 def describe(calc=None):

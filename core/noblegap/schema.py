@@ -61,12 +61,12 @@ class Field:
 
     def allowed_text(self):
         if self.kind == CHOICE:
-            ids = [cid for cid, _ in self.choice_list()]
-            if len(ids) > 12:
-                return (f"one of the {len(ids)} entries in the list (id, UNS number or "
-                        "generic name)" if self.resolve else
-                        f"one of the {len(ids)} entries in the list")
-            return ", ".join(ids)
+            labels = [lab for _, lab in self.choice_list()]
+            if len(labels) > 12:
+                return (f"one of the {len(labels)} entries in the list (a generic name or "
+                        "a UNS number)" if self.resolve else
+                        f"one of the {len(labels)} entries in the list")
+            return "; ".join(labels)
         if self.kind == TEXT:
             return ""
         parts = []
@@ -114,21 +114,49 @@ class Field:
                                      allowed=self.allowed_text())
                 value = int(value)
         elif self.kind == CHOICE:
-            if self.resolve is not None:
-                return self.resolve(text, self.key)
-            ids = [cid for cid, _ in self.choice_list()]
-            if text in ids:
-                return text
-            folded = {cid.lower(): cid for cid in ids}
-            if str(text).lower() in folded:
-                return folded[str(text).lower()]
-            raise ChoiceError(f"{text!r} is not one of the choices for {self.label.lower()}.",
-                              field=self.key, value=raw, allowed=", ".join(ids),
-                              suggestions=suggest(text, ids))
+            try:
+                return self._choose(text, raw)
+            except ChoiceError as exc:
+                self._words_for_people(exc)
+                raise
         else:
             return str(text)
         self._check_range(value, raw)
         return value
+
+    def _choose(self, text, raw):
+        choices = self.choice_list()
+        by_label = {lab.casefold(): cid for cid, lab in choices}
+        if str(text).casefold() in by_label:      # a label picked from the list
+            return by_label[str(text).casefold()]
+        if self.resolve is not None:
+            return self.resolve(text, self.key)
+        ids = [cid for cid, _ in choices]
+        if text in ids:
+            return text
+        folded = {cid.lower(): cid for cid in ids}
+        if str(text).lower() in folded:
+            return folded[str(text).lower()]
+        raise ChoiceError(f"{text!r} is not one of the choices for {self.label.lower()}.",
+                          field=self.key, value=raw, allowed=self.allowed_text(),
+                          suggestions=suggest(text, ids))
+
+    def _words_for_people(self, exc):
+        """Show labels, never ids, in a choice error's suggestions and allowed list.
+
+        Ids stay in links and files; a person reads the labels of the list.
+        """
+        if exc.field not in (None, self.key):
+            return
+        labels = dict(self.choice_list())
+        shown = []
+        for s in exc.suggestions:
+            lab = labels.get(s, s)
+            if lab not in shown:
+                shown.append(lab)
+        exc.suggestions = shown
+        if exc.allowed and all(p.strip() in labels for p in exc.allowed.split(",")):
+            exc.allowed = "; ".join(labels[p.strip()] for p in exc.allowed.split(","))
 
     def _check_range(self, value, raw):
         if self.max is None and abs(value) > MAGNITUDE_LIMIT:

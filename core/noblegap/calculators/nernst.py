@@ -111,23 +111,27 @@ def compute_nernst(metal_a, metal_b, conc_a, conc_b, temperature=T25_K,
     if anode is None:
         rep.headline(f"{cell_text}: E_cell = 0 V — no driving force at these "
                      "concentrations.")
-        rep.verdict("ok", "Balanced", "The two half-cells sit at the same potential.")
+        finding = "Balanced: the two half-cells sit at the same potential."
     else:
         rep.headline(f"{name[anode]} is the anode and corrodes: E_cell = "
                      f"{units.fmt(E_cell, 'V', 4)} for {cell_text} at "
                      f"{units.fmt(tC, '°C', 3)}.")
+        # A finding about the cell, not a verdict on a joint: the verdict
+        # vocabulary (verdicts.py) judges joints on the joint pages.
         if same:
-            rep.verdict("caution", "Concentration cell",
-                        f"The {ra['metal'].lower()} in the more dilute solution corrodes.")
+            finding = (f"Concentration cell: the {ra['metal'].lower()} in the more dilute "
+                       "solution corrodes.")
         elif is_reversed:
-            rep.verdict("avoid", "Order reversed",
-                        f"The concentrations make {name[anode]} the anode, unlike the "
-                        "standard series.")
+            finding = ""
+            rep.warn(f"Order reversed: the concentrations make {name[anode]} the anode, "
+                     "unlike the standard series.")
         else:
-            rep.verdict("ok", "Same order as the standard series",
-                        f"{name[anode]} is the anode here as at unit activity.")
+            finding = (f"Same order as the standard series: {name[anode]} is the anode "
+                       "here as at unit activity.")
     rep.para(_plain_words(ra, rb, res, anode, std_anode, is_reversed, same, c_a, c_b,
                           x_rev, log10_cb_rev, feasible, why, T_K))
+    if finding:
+        rep.para(finding)
     rep.para("The equation assumes each metal is in contact with a solution of its own "
              "ions. On a real structure in natural water the cathode reaction is usually "
              "oxygen reduction, not metal deposition, and films and alloying shift the "
