@@ -107,7 +107,8 @@ class Report:
         return self
 
     def to_dict(self):
-        """The display structure, chemistry written properly in every text."""
+        """The display structure: chemistry written properly and true minus
+        signs in every text a person reads."""
         return _chem_all(self.d)
 
 
@@ -150,9 +151,21 @@ def chem(text):
     return _HALF.sub(r"\1 ⇌ ", text)
 
 
+_HYPHEN_MINUS = re.compile(r"(?<![\w/.])-(?=\.?\d)")
+
+
+def true_minus(text):
+    """A hyphen before a number becomes a true minus sign (U+2212).
+
+    >>> true_minus("from -7.4 to 4.6, A4-70, 10-27 °C")
+    'from −7.4 to 4.6, A4-70, 10-27 °C'
+    """
+    return _HYPHEN_MINUS.sub("\u2212", text)
+
+
 def _chem_all(obj):
     if isinstance(obj, str):
-        return chem(obj)
+        return true_minus(chem(obj))
     if isinstance(obj, list):
         return [_chem_all(x) for x in obj]
     if isinstance(obj, dict):

@@ -326,8 +326,8 @@ def fmt(value, unit="", sig=3):
     '−0.801 V'
     >>> token = set_system(US); fmt(6, "mm"), fmt(0.96, "m²"); reset_system(token)
     ('0.236 in', '10.3 ft²')
-    >>> fmt(0.0042, "A")
-    '4.20 mA'
+    >>> fmt(0.0042, "A"), fmt(7.65e-6, "mol/L"), fmt(2.95e-5)
+    ('4.20 mA', '7.65 µmol/L', '2.95 × 10⁻⁵')
     """
     if value is None:
         return "—"
@@ -335,6 +335,8 @@ def fmt(value, unit="", sig=3):
         return "beyond range"
     if unit in ("A", "mA", "µA", "uA"):
         value, unit = _scaled_current(value, unit)
+    elif unit in ("mol/L", "mmol/L", "µmol/L") and value != 0:
+        value, unit = _scaled_concentration(value, unit)
     elif _SYSTEM.get() == US:
         shown = _us(value, unit)
         if shown is not None:
@@ -347,6 +349,24 @@ def fmt(value, unit="", sig=3):
             decimals = max(sig - 1 - mag, 0)
             text = f"{value:.{decimals}f}"
         else:
-            text = f"{value:.{sig - 1}e}"
+            text = _power_of_ten(value, sig)
     text = text.replace("-", "\u2212")
     return f"{text} {unit}".strip()
+
+
+_SUPERSCRIPT = str.maketrans("0123456789-", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻")
+
+
+def _power_of_ten(value, sig):
+    """``2.95 × 10⁻⁵``: a very small or large number as a person writes it."""
+    mantissa, exponent = f"{value:.{sig - 1}e}".split("e")
+    return f"{mantissa} × 10{str(int(exponent)).translate(_SUPERSCRIPT)}"
+
+
+def _scaled_concentration(value, unit):
+    """A molar concentration in mol/L, mmol/L, µmol/L or nmol/L, whichever reads."""
+    mol_l = value * {"mol/L": 1.0, "mmol/L": 1e-3, "µmol/L": 1e-6}[unit]
+    for factor, name in ((1.0, "mol/L"), (1e-3, "mmol/L"), (1e-6, "µmol/L"), (1e-9, "nmol/L")):
+        if abs(mol_l) >= factor:
+            return mol_l / factor, name
+    return mol_l / 1e-9, "nmol/L"

@@ -47,7 +47,6 @@ from ..materials import alloys, references
 from .. import verdicts
 from ..report import Report
 from ..schema import Calculator
-from ..svg import Svg, nice_ticks, scale
 from .fields import reference_field
 
 COMPATIBLE, MARGINAL, INCOMPATIBLE = "compatible", "marginal", "incompatible"
@@ -84,68 +83,6 @@ def ordered_series(environment="seawater_flowing", reference="sce"):
                     "confidence": row["confidence"]})
     out.sort(key=lambda r: (-r["E_noble_V"], -r["E_active_V"]))
     return out
-
-
-RAMP = ((0x1d, 0x4e, 0x89), (0x2a, 0x8a, 0x8a), (0xc9, 0x9a, 0x1e), (0xc0, 0x4a, 0x1c))
-
-
-def _ramp(t):
-    """Colour from noble (t = 0, deep blue) through teal and ochre to active (t = 1)."""
-    t = min(max(t, 0.0), 1.0) * (len(RAMP) - 1)
-    i = min(int(t), len(RAMP) - 2)
-    a, b, f = RAMP[i], RAMP[i + 1], t - i
-    return "#" + "".join(f"{round(x + (y - x) * f):02x}" for x, y in zip(a, b))
-
-
-def series_svg(rows, ref_label, highlight=()):
-    """Horizontal range bars on a potential axis, noble at top.
-
-    ``highlight`` ids are drawn in a strong colour and the others muted.
-    """
-    label_w, plot_w, right = 290, 380, 20
-    top, row_h, bottom = 44, 15, 48
-    width = label_w + plot_w + right
-    height = top + row_h * len(rows) + bottom
-    svg = Svg(width, height, title=f"Galvanic series, V vs {ref_label}")
-    lo = min(r["E_active_V"] for r in rows)
-    hi = max(r["E_noble_V"] for r in rows)
-    pad = 0.05 * (hi - lo or 1.0)
-    ticks = nice_ticks(lo - pad, hi + pad, 8)
-    x0, x1 = min(ticks[0], lo - pad), max(ticks[-1], hi + pad)
-    x = scale(x0, x1, label_w, label_w + plot_w)
-    svg.rect(0, 0, width, height, fill="#ffffff")
-    svg.text(label_w, 18, "more active (anodic) ←", size=11, fill="#444")
-    svg.text(label_w + plot_w, 18, "→ more noble (cathodic)", size=11, anchor="end",
-             fill="#444")
-    y_axis = top + row_h * len(rows) + 6
-    for t in ticks:
-        xt = x(t)
-        svg.line(xt, top - 6, xt, y_axis, stroke="#e3e3e3")
-        svg.text(xt, y_axis + 14, f"{t:+.2f}".replace("-", "\u2212"), size=10,
-                 anchor="middle", fill="#333")
-    svg.line(label_w, y_axis, label_w + plot_w, y_axis, stroke="#333")
-    svg.text(label_w + plot_w / 2, y_axis + 32, f"Corrosion potential, V vs {ref_label}",
-             size=12, anchor="middle", fill="#222", weight="bold")
-    hl = set(highlight)
-    for i, r in enumerate(rows):
-        y = top + i * row_h
-        strong = r["id"] in hl
-        muted = bool(hl) and not strong
-        if i % 2 == 0:
-            svg.rect(0, y, width, row_h, fill="#f6f7f9")
-        colour = "#b00020" if strong else _ramp(i / max(len(rows) - 1, 1))
-        xa, xb = x(r["E_active_V"]), x(r["E_noble_V"])
-        svg.rect(xa, y + 3, max(xb - xa, 2.0), row_h - 6, fill=colour, rx=2,
-                 opacity=0.35 if muted else 1.0,
-                 stroke="#000000" if strong else None)
-        svg.text(label_w - 8, y + row_h - 4, r["label"], size=10.5, anchor="end",
-                 fill="#000000" if strong else ("#555555" if muted else "#222222"),
-                 weight="bold" if strong else None)
-    return svg
-
-
-def _fmt_range(hi, lo):
-    return f"{units.fmt(lo, '', 3)} to {units.fmt(hi, 'V', 3)}"
 
 
 def _v(value):
