@@ -21,6 +21,7 @@ const TYPING_PAUSE_MS = 800;           // an input error waits for this pause (o
 const ANNOUNCE_PAUSE_MS = 900;         // the live region speaks after this pause
 const PENDING_AFTER_MS = 150;         // an older result is replaced by the echo after this
 const UNITS_KEY = "noblegap.units";
+const OVERRAN_TEXT = `A calculation took longer than ${CALC_TIMEOUT_MS / 1000} s and was stopped.`;
 
 const schema = JSON.parse(document.getElementById("schema").textContent);
 const form = document.getElementById("inputs");
@@ -162,9 +163,7 @@ function overran(id) {
   document.body.dataset.engine = "restarting";
   progressFill.style.width = "0%";
   engineStatus.classList.remove("engine-failed");
-  engineStatus.textContent =
-    `A calculation took longer than ${CALC_TIMEOUT_MS / 1000} s and was stopped; ` +
-    "the engine is restarting. Your inputs are kept.";
+  engineStatus.textContent = `${OVERRAN_TEXT} The engine is restarting; your inputs are kept.`;
   armStartWatchdog();
   for (const e of stranded) e.resolve({ ok: false, stalled: true });
 }
@@ -175,7 +174,7 @@ function showProgress(msg) {
   progressBar.setAttribute("aria-valuenow", String(pct));
   const restarting = document.body.dataset.engine === "restarting";
   engineStatus.textContent = restarting
-    ? `Engine restarting: ${msg.label || msg.phase}…`
+    ? `${OVERRAN_TEXT} Engine restarting: ${msg.label || msg.phase}…`
     : `Engine: ${msg.label || msg.phase}…`;
   if (msg.phase) document.body.dataset.enginePhase = msg.phase;
 }
@@ -190,7 +189,7 @@ function engineReady(msg) {
   if (msg && msg.mode) document.body.dataset.engineMode = msg.mode;
   engineStatus.classList.remove("engine-failed");
   engineStatus.textContent = restarted
-    ? "Live engine restarted: results update as you type."
+    ? `${OVERRAN_TEXT} Live engine restarted: results update as you type.`
     : msg && msg.note ? `Live engine ready (${msg.note}).` : "Live engine ready: results update as you type.";
   for (const id of waiting.keys()) armWatchdog(id);
   if (!restarted) registerServiceWorker();
