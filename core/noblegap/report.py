@@ -83,6 +83,8 @@ class Report:
         """An SVG chart. ``min_width`` [px] is the narrowest the page may draw it
         so that its smallest text is still 12 px on screen; a narrower screen
         scrolls the chart inside its own box instead of shrinking it."""
+        svg = re.sub(r">([^<]*)</text>", lambda m: f">{true_minus(chem(m.group(1)))}</text>",
+                     str(svg))
         self.d["charts"].append({"title": title, "svg": svg, "alt": alt,
                                  "min_width": _min_width(svg)})
         return self
