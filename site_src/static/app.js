@@ -44,12 +44,12 @@ let busy = false;
 let pending = false;
 let ready = false;
 let lastInputAt = 0;
-let lastEditedKey = null;
 let errorTimer = 0;
 let announceTimer = 0;
 let startTimer = 0;
 let stalledKey = null; // inputs whose calculation overran: not retried until edited
 let pendingError = null; // an input error held back while the person types
+let early = null; // the first call, sent before the engine is ready
 const waiting = new Map();
 
 // ---------- inputs and the URL ----------
@@ -154,6 +154,7 @@ function overran(id) {
   const entry = waiting.get(id);
   if (!entry) return;
   stalledKey = entry.key;
+  early = null;
   for (const [, e] of waiting) clearTimeout(e.timer);
   const stranded = [...waiting.values()];
   waiting.clear();
@@ -199,6 +200,7 @@ function engineReady(msg) {
 function engineFailed(message) {
   clearTimeout(startTimer);
   ready = false;
+  early = null;
   document.body.dataset.engine = "failed";
   engineStatus.textContent =
     `The live engine could not start: ${message}. Check the connection and reload the page ` +
@@ -229,7 +231,6 @@ function armStartWatchdog() {
 // queues calls until it is up and answers them in order, so the first live
 // result does not wait for a round trip after "ready". Used only if the
 // inputs are still the same when the engine is ready.
-let early = null;
 function sendEarly() {
   const inputs = readInputs();
   early = { key: keyOf(inputs), reply: call("run", { calc: schema.name, inputs }) };
@@ -671,7 +672,6 @@ function announceSoon(d) {
 // ---------- events ----------
 function onEdit(ev) {
   lastInputAt = performance.now();
-  if (ev && ev.target && ev.target.name) lastEditedKey = ev.target.name;
   stalledKey = null;
   pendingError = null;
   clearTimeout(errorTimer);
