@@ -12,7 +12,7 @@ import importlib
 import math
 from collections.abc import Mapping
 
-from . import __version__
+from . import __version__, units
 from .errors import ChoiceError, InputError, NoblegapError, suggest
 
 # Modules that define CALCULATORS (a list of schema.Calculator), in page order.
@@ -120,8 +120,10 @@ def _run(calc, inputs):
         return _clean(_error(calc, raw, err.to_dict()))
     inputs = {k: v for k, v in inputs.items() if isinstance(k, str)}
     read_as = {}
+    token = None
     try:
         calculator = get(calc)
+        token = units.set_system(display_system(calculator, inputs))
         raw = {k: _jsonable(v) for k, v in calculator.raw_inputs(inputs).items()}
         params, read_as, notes = calculator.read_all(inputs)
         result = calculator.compute(**params)
@@ -131,7 +133,7 @@ def _run(calc, inputs):
     except NoblegapError as exc:
         err = exc.to_dict()
         keys = _field_keys(calc)
-        if err.get("field") is not None and keys and err["field"] not in keys:
+        if err.get("field") not in (None, UNITS_KEY) and keys and err["field"] not in keys:
             # an internal quantity: no field on the page carries that name
             err["field"] = None
         return _clean(_error(calc, raw, err, getattr(exc, "read_as", None) or read_as))
@@ -142,6 +144,9 @@ def _run(calc, inputs):
         return _clean(_error(calc, raw, err.to_dict(), read_as))
     except Exception as exc:  # noqa: BLE001 - last line of defence, never a traceback
         return _clean(_internal(calc, raw, exc))
+    finally:
+        if token is not None:
+            units.reset_system(token)
 
 
 def _field_keys(calc):
@@ -161,6 +166,33 @@ def _add_read_notes(result, notes):
         items = display.setdefault(where, [])
         if text not in items:
             items.insert(0, text)
+
+
+#: The input key of the display-units option (not a calculator field): it
+#: rides in the link and on the command line like any input.
+UNITS_KEY = "units"
+
+
+def display_system(calculator, inputs):
+    """Pop the ``units`` option from ``inputs``; return ``"si"`` or ``"us"``.
+
+    ``si`` or ``us`` is the user's choice; empty or ``auto`` follows what the
+    user typed (inches in, inches out). An unknown value is an input error.
+    """
+    if UNITS_KEY in calculator.field_map():
+        return units.typed_system(v for v in inputs.values())
+    choice = inputs.pop(UNITS_KEY, None)
+    choice = "" if choice is None else str(choice).strip().lower()
+    if choice in ("", "auto"):
+        return units.typed_system(inputs.values())
+    aliases = {"si": units.SI, "metric": units.SI, "us": units.US, "imperial": units.US,
+               "us customary": units.US}
+    if choice not in aliases:
+        raise ChoiceError(f"{choice!r} is not a units choice.", field=UNITS_KEY,
+                          value=choice, allowed="; ".join(units.SYSTEMS.values()) +
+                          "; or leave it empty to follow the units you type",
+                          suggestions=suggest(choice, list(aliases)))
+    return aliases[choice]
 
 
 def describe(calc=None):

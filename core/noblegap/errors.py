@@ -84,7 +84,7 @@ class ChoiceError(NoblegapError, KeyError):
     def __str__(self):
         text = NoblegapError.__str__(self)
         if self.suggestions:
-            text += " Did you mean: " + ", ".join(self.suggestions) + "?"
+            text += " Did you mean: " + "; ".join(self.suggestions) + "?"
         return text
 
     def to_dict(self):

@@ -17,6 +17,16 @@ value, source), ``tables`` (title, columns, rows, note, filterable), ``charts``
 
 from __future__ import annotations
 
+import re
+
+from . import verdicts
+
+# Words older calculators used for the three classes; the label now comes
+# from verdicts.py alone.
+_SYNONYMS = {w.casefold() for w in (
+    *verdicts.LABEL.values(), "sound", "watch", "reject", "compatible", "marginal",
+    "incompatible", "ok", "caution", "avoid")}
+
 # Weakest first. "computed" (a formula applied by noblegap) is not a grade of
 # its own: a computed value is as strong as the inputs beside it.
 CONFIDENCE_ORDER = ("from-memory", "common-practice", "handbook-compiled", "published")
@@ -82,9 +92,26 @@ class Report:
         self._basis = basis
         return self
 
-    def verdict(self, cls, label, reason):
-        """``cls`` is a stable id for styling: ``ok``, ``caution`` or ``avoid``."""
-        self.d["verdict"] = {"class": cls, "label": label, "reason": reason}
+    def verdict(self, cls, *args):
+        """The verdict of class ``cls`` (``ok``, ``caution`` or ``avoid``).
+
+        Called as ``verdict(cls, reason)``. The label a person reads always
+        comes from :mod:`noblegap.verdicts`, so every page speaks one
+        vocabulary. The older form ``verdict(cls, label, reason)`` is still
+        accepted: a label that is only another word for the class is dropped,
+        any other (a finding such as "No perforation within 1000 years") is
+        kept at the front of the reason.
+
+        >>> Report().verdict("avoid", "reject", "Too fast.").d["verdict"]["label"]
+        'Avoid'
+        """
+        if len(args) == 1:
+            (reason,) = args
+        else:
+            extra, reason = args
+            if extra and extra.casefold() not in _SYNONYMS:
+                reason = f"{extra}: {reason}"
+        self.d["verdict"] = {"class": cls, "label": verdicts.label(cls), "reason": reason}
         return self
 
     def para(self, text):
@@ -109,7 +136,24 @@ class Report:
         return self
 
     def chart(self, title, svg, alt):
-        self.d["charts"].append({"title": title, "svg": svg, "alt": alt})
+        """An SVG chart. ``min_width`` [px] is the narrowest the page may draw it
+        so that its smallest text is still 12 px on screen; a narrower screen
+        scrolls the chart inside its own box instead of shrinking it."""
+        svg = re.sub(r">([^<]*)</text>", lambda m: f">{true_minus(chem(m.group(1)))}</text>",
+                     str(svg))
+        self.d["charts"].append({"title": title, "svg": svg, "alt": alt,
+                                 "min_width": _min_width(svg)})
+        return self
+
+    def view(self, view):
+        """A structured view the page draws itself (the galvanic-series view)."""
+        self.d["view"] = view
+        return self
+
+    def link(self, label, page, inputs):
+        """A next step: another page of the site, opened with ``inputs`` filled in."""
+        self.d.setdefault("links", []).append(
+            {"label": label, "page": page, "inputs": {k: str(v) for k, v in inputs.items()}})
         return self
 
     def warn(self, text):
@@ -131,4 +175,66 @@ class Report:
         if hc:
             hc["line"] = confidence_line(hc)
         self.d["headline_confidence"] = hc
-        return self.d
+        return _chem_all(self.d)
+
+
+_MIN_TEXT_PX = 12.0
+
+
+def _min_width(svg):
+    """Narrowest display width [px] keeping the SVG's smallest text ≥ 12 px.
+
+    >>> _min_width('<svg width="600" height="10"><text font-size="10">a</text></svg>')
+    720
+    """
+    import re
+    text = str(svg)
+    m = re.search(r'<svg[^>]*\bwidth="([\d.]+)"', text)
+    sizes = [float(x) for x in re.findall(r'font-size="([\d.]+)"', text)]
+    if not m or not sizes:
+        return None
+    return round(float(m.group(1)) * _MIN_TEXT_PX / min(sizes))
+
+
+_SUP = str.maketrans("0123456789+-", "⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻")
+_ION = re.compile(r"\b((?:[A-Z][a-z]?)+)(\d*)([+-])(?=$|[\s,;.:)|/])")
+_ELECTRON = re.compile(r"\b(\d*)\s?e-(?=$|[\s,;.:)])")
+_HALF = re.compile(r"(e⁻) = ")
+
+
+def chem(text):
+    """Chemistry written properly: ions with superscript charges, e⁻, and ⇌.
+
+    >>> chem("Zn2+ + 2e- = Zn")
+    'Zn²⁺ + 2e⁻ ⇌ Zn'
+    >>> chem("Ag+ + e- = Ag; 316L, A4-70, E = E° − x")
+    'Ag⁺ + e⁻ ⇌ Ag; 316L, A4-70, E = E° − x'
+    """
+    if not isinstance(text, str) or ("+" not in text and "e-" not in text):
+        return text
+    text = _ELECTRON.sub(lambda m: f"{m.group(1)}e⁻", text)
+    text = _ION.sub(lambda m: m.group(1) + (m.group(2) + m.group(3)).translate(_SUP), text)
+    return _HALF.sub(r"\1 ⇌ ", text)
+
+
+_HYPHEN_MINUS = re.compile(r"(?<![\w/.])-(?=\.?\d)")
+
+
+def true_minus(text):
+    """A hyphen before a number becomes a true minus sign (U+2212).
+
+    >>> true_minus("from -7.4 to 4.6, A4-70, 10-27 °C")
+    'from −7.4 to 4.6, A4-70, 10-27 °C'
+    """
+    return _HYPHEN_MINUS.sub("\u2212", text)
+
+
+def _chem_all(obj):
+    if isinstance(obj, str):
+        return true_minus(chem(obj))
+    if isinstance(obj, list):
+        return [_chem_all(x) for x in obj]
+    if isinstance(obj, dict):
+        return {k: (v if k in ("svg", "key", "class", "page", "inputs", "source_id")
+                    else _chem_all(v)) for k, v in obj.items()}
+    return obj

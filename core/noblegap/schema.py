@@ -69,12 +69,12 @@ class Field:
 
     def allowed_text(self):
         if self.kind == CHOICE:
-            ids = [cid for cid, _ in self.choice_list()]
-            if len(ids) > 12:
-                return (f"one of the {len(ids)} entries in the list (id, UNS number or "
-                        "generic name)" if self.resolve else
-                        f"one of the {len(ids)} entries in the list")
-            return ", ".join(ids)
+            labels = [lab for _, lab in self.choice_list()]
+            if len(labels) > 12:
+                return (f"one of the {len(labels)} entries in the list (a generic name or "
+                        "a UNS number)" if self.resolve else
+                        f"one of the {len(labels)} entries in the list")
+            return "; ".join(labels)
         if self.kind == TEXT:
             return ""
         parts = []
@@ -157,22 +157,11 @@ class Field:
                                  f"most {units.MAX_LENGTH}.", field=self.key,
                                  value=text[:units.MAX_LENGTH] + "…",
                                  allowed=self.allowed_text())
-            if self.resolve is not None:
-                hit = self.resolve(text, self.key)
-                cid, note = (hit[0], hit[1:]) if isinstance(hit, tuple) else (hit, None)
-                label = dict(self.choice_list()).get(cid, cid)
-                return cid, label, note
-            ids = [cid for cid, _ in self.choice_list()]
-            labels = dict(self.choice_list())
-            if text in ids:
-                return text, labels[text]
-            folded = {cid.lower(): cid for cid in ids}
-            if str(text).lower() in folded:
-                cid = folded[str(text).lower()]
-                return cid, labels[cid]
-            raise ChoiceError(f"{text!r} is not one of the choices for {self.label.lower()}.",
-                              field=self.key, value=raw, allowed=", ".join(ids),
-                              suggestions=suggest(text, ids))
+            try:
+                return self._choose(text, raw)
+            except ChoiceError as exc:
+                self._words_for_people(exc)
+                raise
         else:
             text = str(text)
             if len(text) > units.MAX_LENGTH:
@@ -186,6 +175,47 @@ class Field:
             return text, echo
         self._check_range(value, raw)
         return value, echo
+
+    def _choose(self, text, raw):
+        """Return ``(id, label)`` (or ``(id, label, note)`` from a resolver) for a choice
+        typed as its label, its id or, through the field's resolver, a designation."""
+        choices = self.choice_list()
+        labels = dict(choices)
+        by_label = {lab.casefold(): cid for cid, lab in choices}
+        if text.casefold() in by_label:      # a label picked from the list
+            cid = by_label[text.casefold()]
+            return cid, labels[cid]
+        if self.resolve is not None:
+            hit = self.resolve(text, self.key)
+            cid, note = (hit[0], hit[1:]) if isinstance(hit, tuple) else (hit, None)
+            return cid, labels.get(cid, cid), note
+        ids = [cid for cid, _ in choices]
+        if text in ids:
+            return text, labels[text]
+        folded = {cid.lower(): cid for cid in ids}
+        if text.lower() in folded:
+            cid = folded[text.lower()]
+            return cid, labels[cid]
+        raise ChoiceError(f"{text!r} is not one of the choices for {self.label.lower()}.",
+                          field=self.key, value=raw, allowed=self.allowed_text(),
+                          suggestions=suggest(text, ids))
+
+    def _words_for_people(self, exc):
+        """Show labels, never ids, in a choice error's suggestions and allowed list.
+
+        Ids stay in links and files; a person reads the labels of the list.
+        """
+        if exc.field not in (None, self.key):
+            return
+        labels = dict(self.choice_list())
+        shown = []
+        for s in exc.suggestions:
+            lab = labels.get(s, s)
+            if lab not in shown:
+                shown.append(lab)
+        exc.suggestions = shown
+        if exc.allowed and all(p.strip() in labels for p in exc.allowed.split(",")):
+            exc.allowed = "; ".join(labels[p.strip()] for p in exc.allowed.split(","))
 
     def _check_range(self, value, raw):
         if self.max is None and abs(value) > MAGNITUDE_LIMIT:

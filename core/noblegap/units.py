@@ -12,6 +12,7 @@ definitions since 2019), not from numbers typed here.
 
 from __future__ import annotations
 
+import contextvars
 import math
 import re
 from importlib import resources
@@ -864,20 +865,114 @@ def symbol(unit):
     return _SYMBOLS.get(unit, unit)
 
 
+# ---------- the display system: SI or US customary, one rule in one place ----------
+#
+# Every number a report shows goes through :func:`fmt`. api.run sets the
+# display system for the duration of one call (an option, or inferred from the
+# units the user typed); fmt then converts the SI units calculators write in
+# to the user's system, so no calculator needs its own conversions.
+SI, US = "si", "us"
+SYSTEMS = {SI: "SI (mm, m², A, mm/yr)", US: "US customary (in, mil, ft², mpy)"}
+_SYSTEM = contextvars.ContextVar("noblegap_display_system", default=SI)
+
+#: Units a user types that say "I work in US customary units".
+_US_TYPED = re.compile(
+    r"(?:\d|\s|^)(?:in|inch|inches|ft|feet|foot|mil|mils|thou|mpy|degF|°F|F|sq ?ft|ft2|ft²|"
+    r"in2|in²|yd)(?![A-Za-z])|\d\s*[\"″']")
+
+
+def system():
+    """The display system of the current call: ``"si"`` or ``"us"``."""
+    return _SYSTEM.get()
+
+
+def set_system(name):
+    """Set the display system; returns a token for :func:`reset_system`."""
+    if name not in SYSTEMS:
+        raise ValueError(f"unknown display system {name!r}")
+    return _SYSTEM.set(name)
+
+
+def reset_system(token):
+    _SYSTEM.reset(token)
+
+
+def typed_system(values):
+    """``"us"`` if any typed value uses a US customary unit, else ``"si"``.
+
+    >>> typed_system(["3/8 in", "316"]), typed_system(["10 mm", "25 °C"])
+    ('us', 'si')
+    """
+    for v in values:
+        if isinstance(v, str) and _US_TYPED.search(v):
+            return US
+    return SI
+
+
+def _us(value, unit):
+    """(value, unit) converted for US customary display, or None to keep SI."""
+    if unit in ("mm", "m", "cm", "µm", "um"):
+        mm = value * {"mm": 1.0, "m": 1e3, "cm": 10.0, "µm": 1e-3, "um": 1e-3}[unit]
+        inch = mm / 25.4
+        if unit == "m" and abs(inch) >= 36:
+            return inch / 12.0, "ft"
+        if abs(inch) < 0.1:
+            return inch * 1000.0, "mil"
+        return inch, "in"
+    if unit in ("m²", "m**2"):
+        return value / 0.09290304, "ft²"
+    if unit in ("cm²", "mm²"):
+        return value * {"cm²": 1e-4, "mm²": 1e-6}[unit] / 0.00064516, "in²"
+    if unit == "A/m²":
+        return value * 0.09290304 * 1e3, "mA/ft²"
+    if unit == "mm/yr":
+        return value / 0.0254, "mpy"
+    if unit == "mpy":                # the pair "x mm/yr (y mpy)" reads "y mpy (x mm/yr)"
+        return value * 0.0254, "mm/yr"
+    if unit == "°C":
+        return value * 9.0 / 5.0 + 32.0, "°F"
+    if unit == "g/cm³":
+        return value * 0.0361273, "lb/in³"
+    return None
+
+
+def _scaled_current(value, unit):
+    """Amperes scaled to A, mA or µA so the number reads well."""
+    amps = value * {"A": 1.0, "mA": 1e-3, "µA": 1e-6, "uA": 1e-6}[unit]
+    a = abs(amps)
+    if a == 0 or a >= 1:
+        return amps, "A"
+    if a >= 1e-3:
+        return amps * 1e3, "mA"
+    return amps * 1e6, "µA"
+
+
 def fmt(value, unit="", sig=3):
     """Format a float with ``sig`` significant figures and a unit symbol.
 
-    Negative numbers get the typographic minus sign (U+2212), as printed.
+    ``unit`` is the (SI) unit ``value`` is in; under the US customary display
+    system (:func:`set_system`) lengths, areas, current densities, rates and
+    temperatures are shown in US units. Currents are scaled to A, mA or µA.
 
     >>> fmt(-0.80123, "V")
-    '\u22120.801 V'
-    >>> fmt(1234.56, "mm")
-    '1235 mm'
+    '−0.801 V'
+    >>> token = set_system(US); fmt(6, "mm"), fmt(0.96, "m²"); reset_system(token)
+    ('0.236 in', '10.3 ft²')
+    >>> fmt(0.0042, "A"), fmt(7.65e-6, "mol/L"), fmt(2.95e-5)
+    ('4.20 mA', '7.65 µmol/L', '2.95 × 10⁻⁵')
     """
     if value is None:
         return "—"
     if isinstance(value, float) and not math.isfinite(value):
         return "beyond range"
+    if unit in ("A", "mA", "µA", "uA"):
+        value, unit = _scaled_current(value, unit)
+    elif unit in ("mol/L", "mmol/L", "µmol/L") and value != 0:
+        value, unit = _scaled_concentration(value, unit)
+    elif _SYSTEM.get() == US:
+        shown = _us(value, unit)
+        if shown is not None:
+            value, unit = shown
     if value == 0:
         text = "0"
     else:
@@ -886,6 +981,24 @@ def fmt(value, unit="", sig=3):
             decimals = max(sig - 1 - mag, 0)
             text = f"{value:.{decimals}f}"
         else:
-            text = f"{value:.{sig - 1}e}"
+            text = _power_of_ten(value, sig)
     text = text.replace("-", "\u2212")
     return f"{text} {unit}".strip()
+
+
+_SUPERSCRIPT = str.maketrans("0123456789-", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻")
+
+
+def _power_of_ten(value, sig):
+    """``2.95 × 10⁻⁵``: a very small or large number as a person writes it."""
+    mantissa, exponent = f"{value:.{sig - 1}e}".split("e")
+    return f"{mantissa} × 10{str(int(exponent)).translate(_SUPERSCRIPT)}"
+
+
+def _scaled_concentration(value, unit):
+    """A molar concentration in mol/L, mmol/L, µmol/L or nmol/L, whichever reads."""
+    mol_l = value * {"mol/L": 1.0, "mmol/L": 1e-3, "µmol/L": 1e-6}[unit]
+    for factor, name in ((1.0, "mol/L"), (1e-3, "mmol/L"), (1e-6, "µmol/L"), (1e-9, "nmol/L")):
+        if abs(mol_l) >= factor:
+            return mol_l / factor, name
+    return mol_l / 1e-9, "nmol/L"

@@ -1,27 +1,56 @@
 // Page script: schema-driven form <-> URL query <-> engine worker <-> result DOM.
 // All computation happens in the Python core inside the worker; this file only
 // moves inputs and renders the core's "display" structure with textContent.
+//
+// The result panel is in exactly one state at a time (#result data-state):
+//   example  the worked example computed at build time, shown only while the
+//            inputs on screen are the example's (and labelled as the example);
+//   pending  your inputs are being computed (or wait for the engine): they
+//            are echoed, and no number of any other inputs is on screen;
+//   live     your result, for the inputs on screen;
+//   error    not computed: the marked field needs fixing (no verdict, no
+//            numbers); also after a calculation overran or the engine failed
+//            (data-reason says which).
 import { registerServiceWorker } from "./register-sw.js";
-import { worker, takeEarly } from "./boot.js";
+import { worker as firstWorker, takeEarly, restartWorker } from "./boot.js";
 import NAMES from "./engine/names.json" with { type: "json" };
+
+// Watchdog limits, stated to the user in the messages below.
+const CALC_TIMEOUT_MS = 3000;          // one calculation, once the engine is live
+const ENGINE_START_TIMEOUT_MS = 30000; // from opening the page to "ready"
+const TYPING_PAUSE_MS = 800;           // an input error waits for this pause (or blur)
+const ANNOUNCE_PAUSE_MS = 900;         // the live region speaks after this pause
+const PENDING_AFTER_MS = 150;         // an older result is replaced by the echo after this
+const UNITS_KEY = "noblegap.units";
+const OVERRAN_TEXT = `A calculation took longer than ${CALC_TIMEOUT_MS / 1000} s and was stopped.`;
 
 const schema = JSON.parse(document.getElementById("schema").textContent);
 const form = document.getElementById("inputs");
 const resultBox = document.getElementById("result");
 const resultBody = document.getElementById("result-body");
-const exampleLabel = document.getElementById("example-label");
+const stateLabel = document.getElementById("example-label");
 const engineStatus = document.getElementById("engine-status");
 const progressFill = document.getElementById("progress-fill");
 const progressBar = progressFill.parentElement;
+const summary = document.getElementById("summary");
+const announcer = document.getElementById("announce");
+const unitsControl = document.getElementById("f-units");
 const fields = new Map(schema.fields.map((f) => [f.key, f]));
 const control = (key) => document.getElementById(`f-${key}`);
 
+let worker = firstWorker;
 let seq = 0;
 let nextId = 1;
 let busy = false;
 let pending = false;
 let ready = false;
 let lastInputAt = 0;
+let errorTimer = 0;
+let announceTimer = 0;
+let startTimer = 0;
+let stalledKey = null; // inputs whose calculation overran: not retried until edited
+let pendingError = null; // an input error held back while the person types
+let early = null; // the first call, sent before the engine is ready
 const waiting = new Map();
 
 // ---------- inputs and the URL ----------
@@ -29,6 +58,7 @@ function setControl(key, value) {
   const el = control(key);
   if (!el) return;
   if (el.tagName === "SELECT" && ![...el.options].some((o) => o.value === value)) {
+    for (const o of el.querySelectorAll("option[data-unknown]")) o.remove();
     const opt = document.createElement("option");
     opt.value = value;
     opt.textContent = `${value} (not recognised)`;
@@ -44,8 +74,12 @@ function readInputs() {
     const el = control(key);
     if (el) out[key] = el.value;
   }
+  const u = unitsControl ? unitsControl.value : "auto";
+  if (u && u !== "auto") out.units = u;
   return out;
 }
+
+const keyOf = (inputs) => JSON.stringify(inputs);
 
 function fromURL() {
   const params = new URLSearchParams(location.search);
@@ -56,95 +90,188 @@ function fromURL() {
       any = true;
     }
   }
+  if (unitsControl && params.has("units")) {
+    const u = params.get("units");
+    if ([...unitsControl.options].some((o) => o.value === u)) unitsControl.value = u;
+  }
   return any;
 }
 
-function toURL() {
+function queryOf(inputs) {
   const params = new URLSearchParams();
-  for (const [key, value] of Object.entries(readInputs())) params.set(key, value);
-  history.replaceState(null, "", `${location.pathname}?${params.toString()}`);
+  for (const [key, value] of Object.entries(inputs)) params.set(key, value);
+  return `${location.pathname}?${params.toString()}`;
 }
 
+function toURL() {
+  history.replaceState(null, "", queryOf(readInputs()));
+}
+
+// The inputs of the worked example, as the build put them on screen.
+const exampleInputs = readInputs();
+delete exampleInputs.units;
+const exampleKey = keyOf(exampleInputs);
+const exampleBody = resultBody.cloneNode(true);
+const onExample = () => keyOf(readInputs()) === exampleKey;
+
 // ---------- the engine worker ----------
-// Started by static/boot.js (early, from <head>).
-worker.onerror = (ev) => {
-  ev.preventDefault();
-  engineFailed(ev.message || "the engine could not start");
-};
-worker.onmessage = (ev) => {
-  const msg = ev.data || {};
-  if (msg.type === NAMES.messages.progress) return showProgress(msg);
-  if (msg.type === NAMES.messages.ready) return engineReady(msg);
-  if (msg.type === NAMES.messages.fatal) return engineFailed(msg.message);
-  if (msg.id !== undefined && waiting.has(msg.id)) {
-    const resolve = waiting.get(msg.id);
-    waiting.delete(msg.id);
-    resolve(msg);
-  }
-};
+function attach(w) {
+  w.onerror = (ev) => {
+    ev.preventDefault();
+    engineFailed(ev.message || "the engine could not start");
+  };
+  w.onmessage = (ev) => {
+    if (w !== worker) return;
+    const msg = ev.data || {};
+    if (msg.type === NAMES.messages.progress) return showProgress(msg);
+    if (msg.type === NAMES.messages.ready) return engineReady(msg);
+    if (msg.type === NAMES.messages.fatal) return engineFailed(msg.message);
+    if (msg.id !== undefined && waiting.has(msg.id)) {
+      const entry = waiting.get(msg.id);
+      waiting.delete(msg.id);
+      clearTimeout(entry.timer);
+      entry.resolve(msg);
+    }
+  };
+}
+
+function armWatchdog(id) {
+  const entry = waiting.get(id);
+  if (!entry || entry.timer) return;
+  entry.timer = setTimeout(() => overran(id), CALC_TIMEOUT_MS);
+}
 
 function call(fn, args) {
   const id = nextId++;
   return new Promise((resolve) => {
-    waiting.set(id, resolve);
+    waiting.set(id, { resolve, timer: 0, key: keyOf(args.inputs || {}) });
     worker.postMessage({ id, fn, args });
+    if (ready) armWatchdog(id);
   });
+}
+
+// A calculation overran: end the worker, start a fresh one, keep the inputs.
+function overran(id) {
+  const entry = waiting.get(id);
+  if (!entry) return;
+  stalledKey = entry.key;
+  early = null;
+  for (const [, e] of waiting) clearTimeout(e.timer);
+  const stranded = [...waiting.values()];
+  waiting.clear();
+  ready = false;
+  worker = restartWorker();
+  attach(worker);
+  document.body.dataset.engine = "restarting";
+  progressFill.style.width = "0%";
+  engineStatus.classList.remove("engine-failed");
+  engineStatus.textContent = `${OVERRAN_TEXT} The engine is restarting; your inputs are kept.`;
+  armStartWatchdog();
+  for (const e of stranded) e.resolve({ ok: false, stalled: true });
 }
 
 function showProgress(msg) {
   const pct = Math.round(100 * Math.max(0, Math.min(1, msg.fraction || 0)));
   progressFill.style.width = `${pct}%`;
   progressBar.setAttribute("aria-valuenow", String(pct));
-  engineStatus.textContent = `Engine: ${msg.label || msg.phase}… (the worked example stays until the live result replaces it)`;
+  const restarting = document.body.dataset.engine === "restarting";
+  engineStatus.textContent = restarting
+    ? `${OVERRAN_TEXT} Engine restarting: ${msg.label || msg.phase}…`
+    : `Engine: ${msg.label || msg.phase}…`;
   if (msg.phase) document.body.dataset.enginePhase = msg.phase;
 }
 
 function engineReady(msg) {
   ready = true;
+  clearTimeout(startTimer);
   progressFill.style.width = "100%";
   progressBar.setAttribute("aria-valuenow", "100");
+  const restarted = document.body.dataset.engine === "restarting";
   document.body.dataset.engine = "ready";
   if (msg && msg.mode) document.body.dataset.engineMode = msg.mode;
-  engineStatus.textContent = msg && msg.note ? `Live engine ready (${msg.note}).` : "Live engine ready: results update as you type.";
+  engineStatus.classList.remove("engine-failed");
+  engineStatus.textContent = restarted
+    ? `${OVERRAN_TEXT} Live engine restarted: results update as you type.`
+    : msg && msg.note ? `Live engine ready (${msg.note}).` : "Live engine ready: results update as you type.";
+  for (const id of waiting.keys()) armWatchdog(id);
+  if (!restarted) registerServiceWorker();
   compute();
-  registerServiceWorker();
 }
 
 function engineFailed(message) {
+  clearTimeout(startTimer);
+  ready = false;
+  early = null;
   document.body.dataset.engine = "failed";
-  engineStatus.textContent = `The live engine could not start (${message}). The worked example below is still valid for its inputs; reload to try again.`;
+  engineStatus.textContent =
+    `The live engine could not start: ${message}. Check the connection and reload the page ` +
+    "(after one complete visit the site also works offline). Your inputs are kept in the link.";
   engineStatus.classList.add("engine-failed");
+  for (const [, e] of waiting) clearTimeout(e.timer);
+  const stranded = [...waiting.values()];
+  waiting.clear();
+  for (const e of stranded) e.resolve({ ok: false, failed: true });
+  showCurrent();
   registerServiceWorker();
+}
+
+function armStartWatchdog() {
+  clearTimeout(startTimer);
+  startTimer = setTimeout(() => {
+    if (ready || document.body.dataset.engine === "failed") return;
+    const phase = document.body.dataset.enginePhase;
+    engineFailed(
+      `it was not ready after ${ENGINE_START_TIMEOUT_MS / 1000} s` +
+        (phase ? ` (stuck at: ${phase})` : "") +
+        "; a runtime file may not have arrived",
+    );
+  }, ENGINE_START_TIMEOUT_MS);
 }
 
 // The first calculation is sent before the engine is ready: the worker
 // queues calls until it is up and answers them in order, so the first live
 // result does not wait for a round trip after "ready". Used only if the
 // inputs are still the same when the engine is ready.
-let early = null;
 function sendEarly() {
   const inputs = readInputs();
-  early = { key: JSON.stringify(inputs), reply: call(NAMES.calls.run, { calc: schema.name, inputs }) };
+  early = { key: keyOf(inputs), reply: call(NAMES.calls.run, { calc: schema.name, inputs }) };
 }
 
 async function compute() {
-  if (!ready) return;
+  if (!ready) {
+    showCurrent();
+    return;
+  }
   if (busy) {
     pending = true;
     return;
   }
+  const inputs = readInputs();
+  const key = keyOf(inputs);
+  if (key === stalledKey) {
+    showStalled();
+    return;
+  }
   busy = true;
   pending = false;
-  const inputs = readInputs();
-  const sent = early && early.key === JSON.stringify(inputs) ? early.reply : null;
+  // A result of other inputs stays only for the blink of a fast answer.
+  if (resultBox.dataset.state === "live" || resultBox.dataset.state === "example") {
+    resultBox.classList.add("is-stale");
+  }
+  const pendTimer = setTimeout(() => showPending(inputs), PENDING_AFTER_MS);
+  const sent = early && early.key === key ? early.reply : null;
   early = null;
   const reply = await (sent ?? call(NAMES.calls.run, { calc: schema.name, inputs }));
+  clearTimeout(pendTimer);
+  resultBox.classList.remove("is-stale");
   busy = false;
-  if (pending) {
+  if (pending || keyOf(readInputs()) !== key) {
     compute();
     return;
   }
-  render(reply);
+  if (reply.stalled) return showStalled();
+  if (reply.failed) return showCurrent();
+  render(reply, inputs);
 }
 
 // ---------- rendering (textContent only) ----------
@@ -155,16 +282,193 @@ function el(tag, cls, text) {
   return node;
 }
 
-function sourceNote(src) {
+function sourceNote(src, what) {
   if (!src) return null;
   const d = el("details", "src");
-  d.appendChild(el("summary", null, "source"));
+  const s = el("summary", null, "source");
+  s.setAttribute("aria-label", `source of ${what}`);
+  d.appendChild(s);
   d.appendChild(el("span", "src-text", src.text));
   if (src.confidence) {
     d.appendChild(document.createTextNode(" "));
     d.appendChild(el("span", `conf conf-${src.confidence}`, src.confidence));
   }
   return d;
+}
+
+function fold(title, nodes, cls) {
+  const d = el("details", `fold ${cls || ""}`.trim());
+  d.appendChild(el("summary", null, title));
+  for (const n of nodes) d.appendChild(n);
+  return d;
+}
+
+// Links to the next check, kept only where this site has the page.
+function nextSteps(links) {
+  const pages = new Set([...document.querySelectorAll(".top nav a")].map((a) => a.getAttribute("href")));
+  const usable = (links || []).filter((l) => pages.has(l.page));
+  if (!usable.length) return null;
+  const nav = el("nav", "next-steps");
+  nav.setAttribute("aria-label", "Next steps");
+  nav.appendChild(el("h3", null, "Next steps"));
+  const ul = el("ul");
+  for (const l of usable) {
+    const li = el("li");
+    const a = el("a", null, l.label);
+    const params = new URLSearchParams(l.inputs || {});
+    const u = readInputs().units;
+    if (u) params.set("units", u);
+    a.href = `${l.page}?${params.toString()}`;
+    li.appendChild(a);
+    ul.appendChild(li);
+  }
+  nav.appendChild(ul);
+  return nav;
+}
+
+function chartImage(c) {
+  const fig = el("figure", "chart");
+  const box = el("div", "chart-scroll");
+  const img = document.createElement("img");
+  img.alt = c.alt || c.title || "chart";
+  img.src = `data:image/svg+xml;charset=utf-8,${encodeURIComponent(c.svg)}`;
+  if (c.min_width) img.dataset.minWidth = c.min_width;
+  box.appendChild(img);
+  fig.appendChild(box);
+  fig.appendChild(el("figcaption", null, c.title));
+  return fig;
+}
+
+function buildTable(t) {
+  const sec = el("section", "table-block");
+  if (t.key) sec.dataset.key = t.key;
+  sec.appendChild(el("h3", null, t.title));
+  if (t.filterable) {
+    const lab = el("label", "filter", "Filter ");
+    const inp = document.createElement("input");
+    inp.type = "search";
+    inp.className = "table-filter";
+    inp.placeholder = "type to filter rows";
+    lab.appendChild(inp);
+    sec.appendChild(lab);
+  }
+  const scroll = el("div", "table-scroll");
+  scroll.tabIndex = 0;
+  scroll.setAttribute("role", "region");
+  scroll.setAttribute("aria-label", t.title);
+  const table = el("table");
+  const head = el("thead");
+  const hr = el("tr");
+  for (const col of t.columns) {
+    const th = el("th", null, col);
+    th.scope = "col";
+    hr.appendChild(th);
+  }
+  if (t.sources) hr.appendChild(el("th", null, "Source"));
+  head.appendChild(hr);
+  table.appendChild(head);
+  const body = el("tbody");
+  t.rows.forEach((cells, i) => {
+    const tr = el("tr");
+    for (const cell of cells) tr.appendChild(el("td", null, cell));
+    if (t.sources) {
+      const td = el("td");
+      const s = sourceNote(t.sources[i], cells[0]);
+      if (s) td.appendChild(s);
+      tr.appendChild(td);
+    }
+    body.appendChild(tr);
+  });
+  table.appendChild(body);
+  scroll.appendChild(table);
+  sec.appendChild(scroll);
+  if (t.note) sec.appendChild(el("p", "table-note", t.note));
+  return sec;
+}
+
+function seriesFilters(v) {
+  const frag = document.createDocumentFragment();
+  const filters = el("div", "sview-filters");
+  const famLabel = el("label", null, "Family ");
+  const fam = el("select", "sview-family");
+  fam.appendChild(Object.assign(el("option", null, "all families"), { value: "" }));
+  for (const g of v.groups) fam.appendChild(Object.assign(el("option", null, g.name), { value: g.name }));
+  famLabel.appendChild(fam);
+  filters.appendChild(famLabel);
+  for (const [cls, text] of [["sview-fasteners", "fastener grades only"], ["sview-stock", "what I can source"]]) {
+    const lab = el("label", "sview-check");
+    const cb = el("input", cls);
+    cb.type = "checkbox";
+    lab.appendChild(cb);
+    lab.appendChild(document.createTextNode(` ${text}`));
+    filters.appendChild(lab);
+  }
+  frag.appendChild(filters);
+  const stock = el("div", "sview-stocklist");
+  stock.hidden = true;
+  stock.appendChild(el("p", "note", "Tick the alloys you can source (kept on this device):"));
+  frag.appendChild(stock);
+  return frag;
+}
+
+// The series view: families of alloys, each a foldable group of rows with
+// the potential range drawn on one shared scale (see series.py, `view`).
+function buildSeriesView(v) {
+  const box = el("section", "sview");
+  box.dataset.key = "series-view";
+  box.appendChild(el("h3", null, v.title));
+  if (v.window_text) box.appendChild(el("p", "sview-window", v.window_text));
+  if (v.filters) box.appendChild(seriesFilters(v));
+  for (const g of v.groups) {
+    const d = el("details", "sview-group");
+    d.dataset.family = g.name;
+    if (g.open) d.open = true;
+    const s = el("summary", null, `${g.name} (${g.rows.length})`);
+    d.appendChild(s);
+    const ul = el("ul", "sview-rows");
+    for (const r of g.rows) {
+      const li = el("li", `sview-row sview-${r.role}`);
+      li.dataset.alloy = r.key;
+      if (r.fastener) li.dataset.fastener = "1";
+      const name = el("span", "sview-name", r.label);
+      if (r.fastener) name.appendChild(el("span", "sview-tag", "fastener grade"));
+      if (r.role !== "other") name.appendChild(el("span", "sview-role", r.role_text));
+      li.appendChild(name);
+      const track = el("span", "sview-track");
+      track.setAttribute("aria-hidden", "true");
+      if (v.window) {
+        const w = el("span", "sview-win");
+        w.dataset.x0 = v.window[0];
+        w.dataset.x1 = v.window[1];
+        track.appendChild(w);
+      }
+      const bar = el("span", "sview-bar");
+      bar.dataset.x0 = r.x0;
+      bar.dataset.x1 = r.x1;
+      track.appendChild(bar);
+      li.appendChild(track);
+      li.appendChild(el("span", "sview-range", r.range));
+      if (r.verdict) li.appendChild(el("span", `sview-verdict verdict-${r.verdict.class}`, r.verdict.label));
+      ul.appendChild(li);
+    }
+    d.appendChild(ul);
+    box.appendChild(d);
+  }
+  if (v.axis) box.appendChild(el("p", "sview-axis", v.axis));
+  if (v.citation) box.appendChild(el("p", "table-note", v.citation));
+  return box;
+}
+
+// Positions and sizes travel as data attributes (the page's CSP allows no
+// inline style attributes); they are applied here through the CSSOM.
+function place(root) {
+  for (const n of root.querySelectorAll(".sview-bar, .sview-win")) {
+    const x0 = Number(n.dataset.x0);
+    const x1 = Number(n.dataset.x1);
+    n.style.left = `${x0}%`;
+    n.style.width = `${Math.max(x1 - x0, n.classList.contains("sview-bar") ? 1 : 0.5)}%`;
+  }
+  for (const img of root.querySelectorAll("img[data-min-width]")) img.style.minWidth = `${img.dataset.minWidth}px`;
 }
 
 function buildDisplay(d) {
@@ -187,7 +491,10 @@ function buildDisplay(d) {
     frag.appendChild(basis);
   }
   for (const w of d.warnings || []) frag.appendChild(el("p", "warning", `⚠ ${w}`));
-  for (const p of d.paragraphs || []) frag.appendChild(el("p", "reading", p));
+  if (d.view) frag.appendChild(buildSeriesView(d.view));
+  if ((d.paragraphs || []).length) {
+    frag.appendChild(fold("What this means", d.paragraphs.map((p) => el("p", "reading", p)), "fold-reading"));
+  }
   if ((d.rows || []).length) {
     const dl = el("dl", "values");
     for (const r of d.rows) {
@@ -196,66 +503,18 @@ function buildDisplay(d) {
       row.appendChild(el("dt", null, r.label));
       const dd = el("dd");
       dd.appendChild(el("span", "value", r.value));
-      const s = sourceNote(r.source);
+      const s = sourceNote(r.source, r.label);
       if (s) dd.appendChild(s);
       row.appendChild(dd);
       dl.appendChild(row);
     }
     frag.appendChild(dl);
   }
-  for (const c of d.charts || []) {
-    const fig = el("figure", "chart");
-    const img = document.createElement("img");
-    img.alt = c.alt || c.title || "chart";
-    img.src = `data:image/svg+xml;charset=utf-8,${encodeURIComponent(c.svg)}`;
-    fig.appendChild(img);
-    fig.appendChild(el("figcaption", null, c.title));
-    frag.appendChild(fig);
-  }
-  for (const t of d.tables || []) {
-    const sec = el("section", "table-block");
-    if (t.key) sec.dataset.key = t.key;
-    sec.appendChild(el("h3", null, t.title));
-    if (t.filterable) {
-      const lab = el("label", "filter", "Filter ");
-      const inp = document.createElement("input");
-      inp.type = "search";
-      inp.className = "table-filter";
-      inp.placeholder = "type to filter rows";
-      lab.appendChild(inp);
-      sec.appendChild(lab);
-    }
-    const scroll = el("div", "table-scroll");
-    const table = el("table");
-    const head = el("thead");
-    const hr = el("tr");
-    for (const col of t.columns) {
-      const th = el("th", null, col);
-      th.scope = "col";
-      hr.appendChild(th);
-    }
-    if (t.sources) hr.appendChild(el("th", null, "Source"));
-    head.appendChild(hr);
-    table.appendChild(head);
-    const body = el("tbody");
-    t.rows.forEach((cells, i) => {
-      const tr = el("tr");
-      for (const cell of cells) tr.appendChild(el("td", null, cell));
-      if (t.sources) {
-        const td = el("td");
-        const s = sourceNote(t.sources[i]);
-        if (s) td.appendChild(s);
-        tr.appendChild(td);
-      }
-      body.appendChild(tr);
-    });
-    table.appendChild(body);
-    scroll.appendChild(table);
-    sec.appendChild(scroll);
-    if (t.note) sec.appendChild(el("p", "table-note", t.note));
-    frag.appendChild(sec);
-  }
-  for (const n of d.notes || []) frag.appendChild(el("p", "note", n));
+  for (const c of d.charts || []) frag.appendChild(chartImage(c));
+  for (const t of d.tables || []) frag.appendChild(buildTable(t));
+  const steps = nextSteps(d.links);
+  if (steps) frag.appendChild(steps);
+  if ((d.notes || []).length) frag.appendChild(fold("Notes", d.notes.map((n) => el("p", "note", n)), "fold-notes"));
   return frag;
 }
 
@@ -305,44 +564,178 @@ function showReadAs(readAs) {
   }
 }
 
-function render(reply) {
-  clearFieldErrors();
-  showReadAs((reply.result || reply.response || {}).inputs_read);
+// What the user entered, as the page shows it (labels for lists, never ids).
+function echo(inputs) {
+  const dl = el("dl", "echo");
+  for (const [key, f] of fields) {
+    const c = control(key);
+    if (!c) continue;
+    let shown = inputs[key];
+    if (c.tagName === "SELECT") shown = c.options[c.selectedIndex]?.textContent ?? shown;
+    if (shown === "" || shown === undefined) shown = "(empty)";
+    const row = el("div", "echo-row");
+    row.appendChild(el("dt", null, f.label));
+    row.appendChild(el("dd", null, shown));
+    dl.appendChild(row);
+  }
+  return dl;
+}
+
+function setSummary(state, verdict, headline) {
+  if (!summary) return;
+  summary.dataset.state = state;
+  summary.replaceChildren();
+  if (verdict) summary.appendChild(el("strong", `summary-verdict verdict-${verdict.class}`, verdict.label));
+  summary.appendChild(el("span", "summary-text", headline));
+}
+
+function setState(state, label, reason) {
   seq += 1;
-  exampleLabel.hidden = true;
-  const old = resultBody.querySelector(".result-error");
-  if (old) old.remove();
-  if (reply.ok && reply.result && reply.result.ok) {
-    resultBody.replaceChildren(buildDisplay(reply.result.result.display));
-    resultBox.dataset.state = "live";
-  } else {
-    const err = (reply.result && reply.result.error) || reply.error || { message: "unknown engine error" };
-    const subs = err.errors && err.errors.length ? err.errors : [err];
-    const unplaced = subs.filter((s) => !showFieldError(s));
-    const box = el("div", "result-error");
-    box.setAttribute("role", "alert");
-    box.textContent = unplaced.length
-      ? unplaced.map((s) => s.message).join(" ")
-      : "Result not updated: correct the highlighted input (your entries are kept).";
-    resultBody.prepend(box);
-    resultBox.dataset.state = "error";
-  }
+  resultBox.dataset.state = state;
+  if (reason) resultBox.dataset.reason = reason;
+  else delete resultBox.dataset.reason;
+  stateLabel.textContent = label || "";
+  stateLabel.hidden = !label;
+  stateLabel.className = `example-label state-${state}`;
   resultBox.dataset.resultSeq = String(seq);
-  if (lastInputAt) {
-    resultBox.dataset.latencyMs = (performance.now() - lastInputAt).toFixed(2);
+  if (lastInputAt) resultBox.dataset.latencyMs = (performance.now() - lastInputAt).toFixed(2);
+}
+
+function showExample() {
+  clearFieldErrors();
+  const failed = document.body.dataset.engine === "failed";
+  resultBody.replaceChildren(...exampleBody.cloneNode(true).childNodes);
+  place(resultBody);
+  setState(
+    "example",
+    failed
+      ? "Only the worked example, for the example inputs shown: the live engine did not start, so nothing else can be computed until it does."
+      : "Worked example: the result for the example inputs shown, computed when this site was built.",
+  );
+  const v = resultBody.querySelector(".verdict");
+  setSummary(
+    "example",
+    v ? { class: [...v.classList].find((c) => c.startsWith("verdict-"))?.slice(8), label: v.querySelector(".verdict-label")?.textContent } : null,
+    `Example: ${resultBody.querySelector(".headline")?.textContent ?? ""}`,
+  );
+}
+
+function showPending(inputs) {
+  const engineState = document.body.dataset.engine;
+  let label;
+  if (engineState === "failed") label = "Not computed: the live engine did not start (see above). Your inputs:";
+  else if (!ready) label = "Your inputs (kept): they are computed as soon as the engine is ready.";
+  else label = "Computing your inputs…";
+  resultBody.replaceChildren(echo(inputs));
+  setState(engineState === "failed" ? "error" : "pending", label, engineState === "failed" ? "engine" : null);
+  setSummary("pending", null, engineState === "failed" ? "Not computed (engine not started)" : "Computing your inputs…");
+}
+
+// Before the engine can answer: the example if these are its inputs, else an echo.
+function showCurrent() {
+  if (onExample()) showExample();
+  else showPending(readInputs());
+}
+
+function showStalled() {
+  clearFieldErrors();
+  const box = el("div", "result-error", `Not computed: the calculation for these inputs took longer than ${CALC_TIMEOUT_MS / 1000} s and was stopped. Check the values (an unusually long or large entry?) and change one to try again.`);
+  box.setAttribute("role", "alert");
+  resultBody.replaceChildren(box, echo(readInputs()));
+  setState("error", "Not computed: the calculation overran.", "timeout");
+  setSummary("error", null, "Not computed: the calculation overran");
+}
+
+function renderError(err, inputs) {
+  clearTimeout(errorTimer);
+  clearFieldErrors();
+  const subs = err.errors && err.errors.length ? err.errors : [err];
+  const unplaced = subs.filter((s) => !showFieldError(s));
+  const box = el("div", "result-error");
+  box.setAttribute("role", "alert");
+  box.textContent = unplaced.length
+    ? `Not computed: ${unplaced.map((s) => s.message).join(" ")}`
+    : "Not computed: correct the marked input (your entries are kept).";
+  resultBody.replaceChildren(box, echo(inputs));
+  setState("error", "Not computed: fix the marked field.");
+  setSummary("error", null, "Not computed: fix the marked field");
+}
+
+function render(reply, inputs) {
+  clearTimeout(errorTimer);
+  showReadAs((reply.result || {}).inputs_read);
+  if (reply.ok && reply.result && reply.result.ok) {
+    clearFieldErrors();
+    const d = reply.result.result.display;
+    resultBody.replaceChildren(buildDisplay(d));
+    place(resultBody);
+    setState("live", "");
+    setSummary("live", d.verdict, d.headline);
+    announceSoon(d);
+    return;
   }
+  const err = (reply.result && reply.result.error) || reply.error || { message: "unknown engine error" };
+  // While the person is still typing in a field, wait for a pause or blur.
+  const typing = document.activeElement && form.contains(document.activeElement) &&
+    document.activeElement.tagName === "INPUT" &&
+    performance.now() - lastInputAt < TYPING_PAUSE_MS;
+  if (typing) {
+    showPending(inputs);
+    stateLabel.textContent = "Waiting for you to finish typing…";
+    const shownKey = keyOf(inputs);
+    errorTimer = setTimeout(() => {
+      if (keyOf(readInputs()) === shownKey) renderError(err, inputs);
+    }, TYPING_PAUSE_MS);
+    pendingError = { err, inputs, key: shownKey };
+    return;
+  }
+  renderError(err, inputs);
+}
+
+function announceSoon(d) {
+  clearTimeout(announceTimer);
+  announceTimer = setTimeout(() => {
+    if (!announcer || resultBox.dataset.state !== "live") return;
+    const v = d.verdict ? `${d.verdict.label}. ` : "";
+    announcer.textContent = `Result updated. ${v}${d.headline}`;
+  }, ANNOUNCE_PAUSE_MS);
 }
 
 // ---------- events ----------
-function onEdit() {
+function onEdit(ev) {
   lastInputAt = performance.now();
+  stalledKey = null;
+  pendingError = null;
+  clearTimeout(errorTimer);
   // The call goes to the worker first; the URL is updated while it computes.
-  compute();
+  if (ready) {
+    compute();
+  } else {
+    showCurrent();
+  }
   toURL();
 }
 form.addEventListener("input", onEdit);
-form.addEventListener("change", onEdit);
+// Leaving a field (change on blur, focusout) shows a held-back error at once.
+const flushError = () => {
+  if (pendingError && pendingError.key === keyOf(readInputs())) {
+    renderError(pendingError.err, pendingError.inputs);
+    pendingError = null;
+  }
+};
+form.addEventListener("change", flushError);
+form.addEventListener("focusout", flushError);
 form.addEventListener("submit", (ev) => ev.preventDefault());
+
+if (unitsControl) {
+  unitsControl.addEventListener("change", () => {
+    try {
+      localStorage.setItem(UNITS_KEY, unitsControl.value);
+    } catch {
+      /* storage may be unavailable (private mode): the link still carries it */
+    }
+  });
+}
 
 document.addEventListener("input", (ev) => {
   const t = ev.target;
@@ -352,6 +745,60 @@ document.addEventListener("input", (ev) => {
   for (const tr of block.querySelectorAll("tbody tr")) {
     tr.hidden = q !== "" && !tr.textContent.toLowerCase().includes(q);
   }
+});
+
+// Series view filters (family, fastener grades, what the user can source).
+const STOCK_KEY = "noblegap.stock";
+function stockSet() {
+  try {
+    return new Set(JSON.parse(localStorage.getItem(STOCK_KEY) || "[]"));
+  } catch {
+    return new Set();
+  }
+}
+function applySeriesFilters(view) {
+  const fam = view.querySelector(".sview-family").value;
+  const onlyFast = view.querySelector(".sview-fasteners").checked;
+  const onlyStock = view.querySelector(".sview-stock").checked;
+  const stock = stockSet();
+  for (const g of view.querySelectorAll(".sview-group")) {
+    g.hidden = fam !== "" && g.dataset.family !== fam;
+    if (fam !== "" && g.dataset.family === fam) g.open = true;
+    for (const r of g.querySelectorAll(".sview-row")) {
+      const mine = !r.classList.contains("sview-other");
+      r.hidden = !mine && ((onlyFast && !r.dataset.fastener) || (onlyStock && !stock.has(r.dataset.alloy)));
+    }
+  }
+  const list = view.querySelector(".sview-stocklist");
+  list.hidden = !onlyStock;
+  if (onlyStock && !list.querySelector("input")) {
+    const stock2 = stockSet();
+    for (const r of view.querySelectorAll(".sview-row")) {
+      const lab = el("label", "sview-check");
+      const cb = el("input");
+      cb.type = "checkbox";
+      cb.value = r.dataset.alloy;
+      cb.checked = stock2.has(r.dataset.alloy);
+      lab.appendChild(cb);
+      lab.appendChild(document.createTextNode(` ${r.querySelector(".sview-name").firstChild.textContent}`));
+      list.appendChild(lab);
+    }
+  }
+}
+resultBody.addEventListener("change", (ev) => {
+  const view = ev.target.closest(".sview");
+  if (!view) return;
+  if (ev.target.closest(".sview-stocklist")) {
+    const s = stockSet();
+    if (ev.target.checked) s.add(ev.target.value);
+    else s.delete(ev.target.value);
+    try {
+      localStorage.setItem(STOCK_KEY, JSON.stringify([...s]));
+    } catch {
+      /* kept for this page only */
+    }
+  }
+  applySeriesFilters(view);
 });
 
 document.getElementById("share").addEventListener("click", async () => {
@@ -365,19 +812,55 @@ document.getElementById("share").addEventListener("click", async () => {
   }
 });
 
+// "Back to the example" keeps the user's check: the browser's Back button
+// returns to it, and an Undo button restores it at once.
+function applyInputs(inputs) {
+  for (const key of fields.keys()) {
+    const f = fields.get(key);
+    const v = key in inputs ? inputs[key] : f.default == null ? "" : String(f.default);
+    setControl(key, v);
+  }
+}
 document.getElementById("reset").addEventListener("click", () => {
-  for (const [key, value] of Object.entries(schema.example)) setControl(key, value);
-  for (const [key, f] of fields) {
-    if (!(key in schema.example)) setControl(key, f.default == null ? "" : String(f.default));
+  const mine = readInputs();
+  const status = document.getElementById("share-status");
+  if (keyOf(mine) !== exampleKey) {
+    history.replaceState(null, "", queryOf(mine));
+    applyInputs(exampleInputs);
+    history.pushState(null, "", queryOf(readInputs()));
+    status.replaceChildren(document.createTextNode("Example restored; your check is one step back. "));
+    const undo = el("button", "btn btn-quiet btn-undo", "Undo");
+    undo.type = "button";
+    undo.addEventListener("click", () => {
+      applyInputs(mine);
+      status.textContent = "Your check is back.";
+      onEdit();
+    });
+    status.appendChild(undo);
+  } else {
+    applyInputs(exampleInputs);
   }
   onEdit();
 });
+window.addEventListener("popstate", () => {
+  applyInputs({});
+  fromURL();
+  onEdit();
+});
 
-if (fromURL()) {
-  exampleLabel.textContent = "Worked example for the default inputs, not yet yours: your result replaces it as soon as the engine is ready.";
-  resultBox.dataset.state = "example-stale";
+// ---------- start ----------
+try {
+  const saved = localStorage.getItem(UNITS_KEY);
+  if (unitsControl && saved && [...unitsControl.options].some((o) => o.value === saved)) unitsControl.value = saved;
+} catch {
+  /* no storage: the default (follow what you type) */
 }
+fromURL();
+if (!onExample()) showPending(readInputs());
+else showExample();
 document.body.dataset.engine = "loading";
+attach(worker);
+armStartWatchdog();
 
 // What the worker said before this script took it over, in order.
 for (const ev of takeEarly()) {

@@ -4,7 +4,9 @@
 // imports have been fetched. app.js imports it too: a module runs once per
 // page, so there is one worker whichever script gets here first. The
 // worker's messages are kept until app.js takes them with takeEarly().
-export const worker = new Worker(new URL("./engine/worker.js", import.meta.url), { type: "module" });
+const WORKER_URL = new URL("./engine/worker.js", import.meta.url);
+
+export let worker = new Worker(WORKER_URL, { type: "module" });
 const kept = [];
 const keep = (event) => kept.push(event);
 worker.addEventListener("message", keep);
@@ -15,4 +17,16 @@ export function takeEarly() {
   worker.removeEventListener("message", keep);
   worker.removeEventListener("error", keep);
   return kept.splice(0);
+}
+
+/**
+ * The page's watchdog: end the current worker (a calculation that overran,
+ * or an engine that never became ready) and start a fresh one. Returns the
+ * new worker; the `worker` binding follows it.
+ */
+export function restartWorker() {
+  takeEarly();
+  worker.terminate();
+  worker = new Worker(WORKER_URL, { type: "module" });
+  return worker;
 }

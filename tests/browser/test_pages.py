@@ -122,7 +122,7 @@ def test_tampered_url_reference_id(page, server):
     page.goto(f"{server}/convert.html?potential=-0.8+V&from_ref=bogus&to_ref=she")
     wait_live(page)
     msg = page.inner_text("#e-from_ref")
-    assert "'bogus'" in msg and "sce" in msg
+    assert "'bogus'" in msg and "Saturated calomel electrode (SCE)" in msg
     assert page.input_value("#f-from_ref") == "bogus"
 
 

@@ -41,4 +41,5 @@ def test_reading_says_who_corrodes_and_deposits():
 def test_case_insensitive_and_did_you_mean():
     assert api.run("couple", {"metal_a": "zn", "metal_b": "cu"})["result"]["anode"] == "Zn"
     out = api.run("couple", {"metal_a": "Zx", "metal_b": "Cu"})
-    assert out["error"]["errors"][0]["suggestions"][0] == "Zn"
+    # Suggestions are the labels a person reads, never the ids.
+    assert out["error"]["errors"][0]["suggestions"][0] == "Zinc (Zn²⁺ + 2e⁻ ⇌ Zn)"

@@ -35,16 +35,39 @@ def test_series_is_ordered_noble_to_active():
         assert r["E_noble_V"] >= r["E_active_V"]
 
 
-def test_series_svg_names_every_alloy():
+def test_series_view_names_every_alloy_and_centres_the_pair():
     res = run("series", environment="seawater_flowing", reference="sce",
               alloy_a="316", alloy_b="zinc")
-    svg = res["display"]["charts"][0]["svg"]
-    texts = re.findall(r"<text [^>]*>([^<]*)</text>", svg)
-    for row in data.table("alloys"):
-        assert escape(materials._label(row)) in texts, row["id"]
-    assert "V vs SCE" in svg
-    assert svg.count('fill="#b00020"') == 2   # the highlighted pair, strong colour
+    view = res["display"]["view"]
+    shown = [r for g in view["groups"] for r in g["rows"]]
+    assert sorted(r["label"] for r in shown) == sorted(
+        materials._label(row) for row in data.table("alloys"))
+    roles = {r["key"]: r["role"] for r in shown}
+    assert roles["S31600"] == "cathode" and roles["zinc"] == "anode"
+    # The groups holding the user's alloys come first and open.
+    assert all(g["open"] for g in view["groups"][:2])
+    assert {r["key"] for r in view["groups"][0]["rows"] + view["groups"][1]["rows"]} >= {
+        "S31600", "zinc"}
+    # The window around the cathode: 316 passive ± 0.15 V (flowing seawater).
+    lo, hi = view["window"]
+    assert 0 < lo < hi < 100
+    assert "0.15 V" in view["window_text"]
+    # Every other alloy carries the verdict it would get joined to the cathode.
+    labels = {"Acceptable", "Needs care", "Avoid"}
+    assert all(r["verdict"]["label"] in labels for r in shown if r["key"] != "S31600")
     assert res["highlight"] == ["S31600", "zinc"]
+
+
+def test_series_view_is_not_the_printed_order():
+    """Our own view: alloys grouped by family, not one list in potential order."""
+    res = run("series", environment="seawater_flowing", reference="sce")
+    view = res["display"]["view"]
+    flat = [r["key"] for g in view["groups"] for r in g["rows"]]
+    printed = [r["id"] for r in res["alloys"]]          # noble → active
+    assert sorted(flat) == sorted(printed) and flat != printed
+    assert not res["display"]["charts"]
+    families = [g["name"] for g in view["groups"]]
+    assert len(families) == len(set(families)) >= 8
 
 
 def test_series_table_has_a_source_per_row():
@@ -67,7 +90,8 @@ def test_series_on_every_reference_scale(ref):
 def test_series_bad_highlight_is_an_input_error():
     r = api.run("series", {"alloy_a": "titanum"})
     assert not r["ok"] and r["error"]["field"] == "alloy_a"
-    assert "titanium" in r["error"]["message"]
+    assert "Titanium" in r["error"]["message"]
+    assert "titanium" not in r["error"]["message"].replace("titanum", "")  # a label, not the id
 
 
 def test_pair_stainless_on_aluminium():
@@ -167,7 +191,9 @@ def test_state_on_a_metal_without_states_is_noted():
     assert any("no passive/active distinction" in n for n in res["display"]["notes"])
 
 
-def test_reference_labels_on_the_chart():
-    svg = run("series", reference="ag_agcl_sat_kcl")["display"]["charts"][0]["svg"]
-    assert "V vs Silver/silver chloride, saturated KCl" in svg
-    assert "V vs CSE" in run("series", reference="cse")["display"]["charts"][0]["svg"]
+def test_reference_labels_on_the_view():
+    axis = run("series", reference="ag_agcl_sat_kcl")["display"]["view"]["axis"]
+    assert "vs Silver/silver chloride, saturated KCl" in axis
+    assert "vs CSE" in run("series", reference="cse")["display"]["view"]["axis"]
+
+

@@ -104,7 +104,7 @@ def test_aluminium_copper_balances_six_electrons():
     assert out["Q_exponents"] == {"a": 2, "b": 3}
     assert out["Q"] == pytest.approx(0.01 ** 2 / 0.1 ** 3, rel=1e-12)
     note = out["display"]["tables"][0]["note"]
-    assert "3 Cu2+ + 2 Al → 3 Cu + 2 Al3+" in note
+    assert "3 Cu²⁺ + 2 Al → 3 Cu + 2 Al³⁺" in note   # chemistry written properly
 
 
 def test_electron_balance():

@@ -6,6 +6,8 @@ temperature coefficients are in :mod:`noblegap.materials.references`.
 
 from __future__ import annotations
 
+import re
+
 from .. import units
 from ..materials import data
 from ..materials.references import (COEF_THERMAL, T25_K, isothermal_coefficient, reference,
@@ -13,6 +15,12 @@ from ..materials.references import (COEF_THERMAL, T25_K, isothermal_coefficient,
 from ..report import Report
 from ..schema import QUANTITY, Calculator, Field
 from .fields import reference_field, temperature_field
+
+
+def _abbr(row):
+    """``SCE``, ``CSE``: the abbreviation a reference's name gives, else its name."""
+    m = re.search(r"\(([A-Z]{2,5})\)", row["name"])
+    return m.group(1) if m else row["name"]
 
 
 def compute_convert(potential, from_ref, to_ref, temperature):
@@ -26,7 +34,8 @@ def compute_convert(potential, from_ref, to_ref, temperature):
     rep.headline(f"{units.fmt(potential, 'V', 4)} vs {row_from['name']} is "
                  f"{units.fmt(out, 'V', 4)} vs {row_to['name']}.")
     rep.row("Potential on the target scale", units.fmt(out, "V", 4),
-            f"computed: E(vs {to_ref}) = E(vs {from_ref}) + E_{from_ref} − E_{to_ref}",
+            f"computed: E(vs {_abbr(row_to)}) = E(vs {_abbr(row_from)}) + "
+            f"E({_abbr(row_from)}) − E({_abbr(row_to)})",
             key="potential_V")
     rep.row("Temperature of both electrodes",
             f"{units.fmt(T_K - 273.15, '°C', 3)} (measuring electrode and reference alike)",

@@ -269,8 +269,8 @@ CALCULATORS = [
         fields=[
             alloys.alloy_field("fastener", "Fastener alloy", "S31600",
                                help="Generic name or UNS number, e.g. 316 stainless, "
-                                    "S31600, carbon steel, galvanized. Add _active "
-                                    "(S31600_active) for a stainless in a crevice."),
+                                    "S31600, carbon steel, galvanized. For a stainless "
+                                    "in a crevice pick its active row from the list."),
             alloys.alloy_field("plate", "Plate alloy", "A95083"),
             members.environment_field(default="CX"),
             Field("fastener_kind", "Fastener kind", CHOICE, default="bolt",

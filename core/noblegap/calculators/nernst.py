@@ -113,23 +113,27 @@ def compute_nernst(metal_a, metal_b, conc_a, conc_b, temperature=T25_K,
     if anode is None:
         rep.headline(f"{cell_text}: E_cell = 0 V — no driving force at these "
                      "concentrations.")
-        rep.verdict("ok", "Balanced", "The two half-cells sit at the same potential.")
+        finding = "Balanced: the two half-cells sit at the same potential."
     else:
         rep.headline(f"{name[anode]} is the anode and corrodes: E_cell = "
                      f"{units.fmt(E_cell, 'V', 4)} for {cell_text} at "
                      f"{units.fmt(tC, '°C', 3)}.")
+        # A finding about the cell, not a verdict on a joint: the verdict
+        # vocabulary (verdicts.py) judges joints on the joint pages.
         if same:
-            rep.verdict("caution", "Concentration cell",
-                        f"The {ra['metal'].lower()} in the more dilute solution corrodes.")
+            finding = (f"Concentration cell: the {ra['metal'].lower()} in the more dilute "
+                       "solution corrodes.")
         elif is_reversed:
-            rep.verdict("avoid", "Order reversed",
-                        f"The concentrations make {name[anode]} the anode, unlike the "
-                        "standard series.")
+            finding = ""
+            rep.warn(f"Order reversed: the concentrations make {name[anode]} the anode, "
+                     "unlike the standard series.")
         else:
-            rep.verdict("ok", "Same order as the standard series",
-                        f"{name[anode]} is the anode here as at unit activity.")
+            finding = (f"Same order as the standard series: {name[anode]} is the anode "
+                       "here as at unit activity.")
     rep.para(_plain_words(ra, rb, res, anode, std_anode, is_reversed, same, c_a, c_b,
                           x_rev, log10_cb_rev, feasible, why, T_K))
+    if finding:
+        rep.para(finding)
     rep.para("The equation assumes each metal is in contact with a solution of its own "
              "ions. On a real structure in natural water the cathode reaction is usually "
              "oxygen reduction, not metal deposition, and films and alloying shift the "
@@ -155,8 +159,8 @@ def compute_nernst(metal_a, metal_b, conc_a, conc_b, temperature=T25_K,
             "computed: n = lcm(n_a, n_b)", key="n")
     rep.row("Reaction quotient Q", _fmt_pow10(log10_Q),
             f"computed: Q = a_a^{res['p_a']} / a_b^{res['p_b']}", key="Q")
-    rep.row("Reversal ratio conc_b/conc_a (conc_a fixed)", _fmt_pow10(x_rev),
-            "computed in closed form: E_b(conc_b) = E_a", key="reversal_ratio")
+    rep.row("Reversal ratio c_b/c_a (c_a fixed)", _fmt_pow10(x_rev),
+            "computed in closed form: E_b(c_b) = E_a", key="reversal_ratio")
     rep.row("ln(10)·RT/F at this temperature", units.fmt(slope * 1e3, "mV", 5),
             data.cite(CODATA_CITE_ROW))
 
@@ -192,7 +196,7 @@ def compute_nernst(metal_a, metal_b, conc_a, conc_b, temperature=T25_K,
         rep.row(f"Davies constant A at {units.fmt(tC, '°C', 3)}", f"{A_T:.4f}",
                 {"source_id": "llnl_thermo", "confidence": "published",
                  "text": "computed: A = 0.509 · A(T)/A(25 °C), A(T) interpolated in "
-                         "data/debye_huckel.csv — " +
+                         "the Debye–Hückel table — " +
                          "; ".join(c["text"] for c in davies_A_sources(T_K))})
     else:
         if ionic_strength is not None:
@@ -304,11 +308,11 @@ def _plain_words(ra, rb, res, anode, std_anode, is_reversed, same, c_a, c_b, x_r
     else:
         text += "That is the same order as the standard series. "
     if feasible:
-        text += (f"The couple reverses when conc_b/conc_a = {_fmt_pow10(x_rev)} "
-                 f"(conc_b = {rev_conc} with conc_a held at {_fmt_conc(c_a)}).")
+        text += (f"The couple reverses when c_b/c_a = {_fmt_pow10(x_rev)} "
+                 f"(c_b = {rev_conc} with c_a held at {_fmt_conc(c_a)}).")
     else:
-        text += (f"Reversing it would need conc_b/conc_a = {_fmt_pow10(x_rev)}, i.e. "
-                 f"conc_b = {rev_conc}: {why}, so concentration alone cannot reverse "
+        text += (f"Reversing it would need c_b/c_a = {_fmt_pow10(x_rev)}, i.e. "
+                 f"c_b = {rev_conc}: {why}, so concentration alone cannot reverse "
                  "this couple.")
     return text
 
@@ -362,14 +366,14 @@ def _chart(ra, rb, res, c_a, T_K, x_user, x_rev, in_chart):
                  f"reversal at {x_rev:.1f}: off the chart".replace("-", "\u2212"), size=11,
                  anchor="start" if side == "left" else "end", fill="#1f5f8b")
     svg.text((L + W - R) / 2, H - 18,
-             f"log10(conc_b / conc_a), {ra['ion']} held at {_fmt_conc(c_a)}", size=12,
+             f"log10(c_b / c_a), {ra['ion']} held at {_fmt_conc(c_a)}", size=12,
              anchor="middle")
     svg.add("text", "E_cell (V)", x=16, y=(T + H - B) / 2, font_size=12,
             text_anchor="middle", font_family=Svg.FONT,
             transform=f"rotate(-90 16 {(T + H - B) / 2:.1f})")
     svg.text(L + 6, T - 10, f"{ra['metal']} | {ra['ion']} || {rb['ion']} | {rb['metal']}",
              size=12, weight="600")
-    alt = (f"Straight line of E_cell against log10(conc_b/conc_a) from {x_lo:.1f} to "
+    alt = (f"Straight line of E_cell against log10(c_b/c_a) from {x_lo:.1f} to "
            f"{x_hi:.1f}, slope {slope * 1e3:.1f} mV per decade; your point at "
            f"{x_user:.2f} gives {res['E_cell_V']:.4f} V; {rev_note}.")
     return str(svg), alt
@@ -399,17 +403,17 @@ CALCULATORS = [
         intro=("The standard series assumes 1 mol/L of each metal's ions at 25 °C. Enter "
                "the real concentrations and temperature to see each half-cell's potential, "
                "the cell potential, and how far the concentrations would have to move for "
-               "the other metal to corrode. The reversal ratio conc_b/conc_a is solved "
-               "exactly (closed form) with conc_a held at your value."),
+               "the other metal to corrode. The reversal ratio c_b/c_a is solved "
+               "exactly (closed form) with c_a held at your value."),
         fields=[
             Field("metal_a", "Metal a (left, anode as written)", CHOICE, default="Zn",
                   choices=metal_ids, help="Half-reaction from the standard-potential table.",
                   source="data/half_reactions.csv"),
-            _conc_field("conc_a", "Ion concentration at a", "0.1 mol/L", "left"),
+            _conc_field("conc_a", "Ion concentration at a, c_a", "0.1 mol/L", "left"),
             Field("metal_b", "Metal b (right, cathode as written)", CHOICE, default="Cu",
                   choices=metal_ids, help="Half-reaction from the standard-potential table.",
                   source="data/half_reactions.csv"),
-            _conc_field("conc_b", "Ion concentration at b", "0.01 mol/L", "right"),
+            _conc_field("conc_b", "Ion concentration at b, c_b", "0.01 mol/L", "right"),
             _temperature_field(),
             Field("activity", "Activity model", CHOICE, default=ACTIVITY_IDEAL,
                   choices=[(ACTIVITY_IDEAL, "ideal (activity = concentration)"),

@@ -44,9 +44,9 @@ import re
 
 from .. import units
 from ..materials import alloys, references
+from .. import verdicts
 from ..report import Report
 from ..schema import Calculator
-from ..svg import Svg, nice_ticks, scale
 from .fields import reference_field
 
 COMPATIBLE, MARGINAL, INCOMPATIBLE = "compatible", "marginal", "incompatible"
@@ -85,71 +85,97 @@ def ordered_series(environment="seawater_flowing", reference="sce"):
     return out
 
 
-RAMP = ((0x1d, 0x4e, 0x89), (0x2a, 0x8a, 0x8a), (0xc9, 0x9a, 0x1e), (0xc0, 0x4a, 0x1c))
-
-
-def _ramp(t):
-    """Colour from noble (t = 0, deep blue) through teal and ochre to active (t = 1)."""
-    t = min(max(t, 0.0), 1.0) * (len(RAMP) - 1)
-    i = min(int(t), len(RAMP) - 2)
-    a, b, f = RAMP[i], RAMP[i + 1], t - i
-    return "#" + "".join(f"{round(x + (y - x) * f):02x}" for x, y in zip(a, b))
-
-
-def series_svg(rows, ref_label, highlight=()):
-    """Horizontal range bars on a potential axis, noble at top.
-
-    ``highlight`` ids are drawn in a strong colour and the others muted.
-    """
-    label_w, plot_w, right = 290, 380, 20
-    top, row_h, bottom = 44, 15, 48
-    width = label_w + plot_w + right
-    height = top + row_h * len(rows) + bottom
-    svg = Svg(width, height, title=f"Galvanic series, V vs {ref_label}")
-    lo = min(r["E_active_V"] for r in rows)
-    hi = max(r["E_noble_V"] for r in rows)
-    pad = 0.05 * (hi - lo or 1.0)
-    ticks = nice_ticks(lo - pad, hi + pad, 8)
-    x0, x1 = min(ticks[0], lo - pad), max(ticks[-1], hi + pad)
-    x = scale(x0, x1, label_w, label_w + plot_w)
-    svg.rect(0, 0, width, height, fill="#ffffff")
-    svg.text(label_w, 18, "more active (anodic) ←", size=11, fill="#444")
-    svg.text(label_w + plot_w, 18, "→ more noble (cathodic)", size=11, anchor="end",
-             fill="#444")
-    y_axis = top + row_h * len(rows) + 6
-    for t in ticks:
-        xt = x(t)
-        svg.line(xt, top - 6, xt, y_axis, stroke="#e3e3e3")
-        svg.text(xt, y_axis + 14, f"{t:+.2f}".replace("-", "\u2212"), size=10,
-                 anchor="middle", fill="#333")
-    svg.line(label_w, y_axis, label_w + plot_w, y_axis, stroke="#333")
-    svg.text(label_w + plot_w / 2, y_axis + 32, f"Corrosion potential, V vs {ref_label}",
-             size=12, anchor="middle", fill="#222", weight="bold")
-    hl = set(highlight)
-    for i, r in enumerate(rows):
-        y = top + i * row_h
-        strong = r["id"] in hl
-        muted = bool(hl) and not strong
-        if i % 2 == 0:
-            svg.rect(0, y, width, row_h, fill="#f6f7f9")
-        colour = "#b00020" if strong else _ramp(i / max(len(rows) - 1, 1))
-        xa, xb = x(r["E_active_V"]), x(r["E_noble_V"])
-        svg.rect(xa, y + 3, max(xb - xa, 2.0), row_h - 6, fill=colour, rx=2,
-                 opacity=0.35 if muted else 1.0,
-                 stroke="#000000" if strong else None)
-        svg.text(label_w - 8, y + row_h - 4, r["label"], size=10.5, anchor="end",
-                 fill="#000000" if strong else ("#555555" if muted else "#222222"),
-                 weight="bold" if strong else None)
-    return svg
-
-
-def _fmt_range(hi, lo):
-    return f"{units.fmt(lo, '', 3)} to {units.fmt(hi, 'V', 3)}"
-
-
 def _v(value):
     """A potential to 2 decimals, as the series prints it."""
     return (f"{value:+.2f}".replace("-", "\u2212")) + " V"
+
+
+# Our grouping of the table's families, in the order a fabricator reaches for
+# them (structural and fastener metals first, the rarely joined after).
+FAMILY_GROUPS = (
+    ("Stainless steels", ("stainless steel",)),
+    ("Aluminium alloys", ("aluminium",)),
+    ("Steels and cast irons", ("steel", "cast iron")),
+    ("Zinc and zinc coatings, cadmium", ("zinc", "zinc-coated steel", "cadmium")),
+    ("Copper, brasses and bronzes", ("copper", "copper alloy")),
+    ("Copper-nickels", ("copper-nickel",)),
+    ("Nickel and nickel alloys", ("nickel", "nickel alloy")),
+    ("Titanium", ("titanium",)),
+    ("Magnesium", ("magnesium",)),
+    ("Lead, tin and solder", ("lead", "tin", "solder")),
+    ("Noble metals and graphite", ("noble metal", "carbon")),
+)
+
+
+def _family_group(family):
+    for name, members in FAMILY_GROUPS:
+        if family in members:
+            return name
+    return "Other metals"
+
+
+def series_view(rows, environment, reference, centre=None, partner=None, filters=True):
+    """The job-centred series view: families, one potential track, the window.
+
+    ``centre`` is the alloy the window is drawn around (the cathode of the
+    user's pair, or the one alloy highlighted); every other row gets the
+    verdict it would have joined to ``centre`` in ``environment``. Returns a
+    JSON-ready dict the page draws (``Report.view``).
+    """
+    env = alloys.environment(environment)
+    allowed = env["allowed_delta_V"]
+    ref_label = _ref_short(reference)
+    lo = min(r["E_active_V"] for r in rows)
+    hi = max(r["E_noble_V"] for r in rows)
+    pad = 0.03 * (hi - lo or 1.0)
+    lo, hi = lo - pad, hi + pad
+    pct = lambda v: round(100.0 * (v - lo) / (hi - lo), 2)  # noqa: E731
+    by_id = {r["id"]: r for r in rows}
+    fast = {r["id"]: r["fastener_use"] == "yes" for r in alloys.alloy_table()}
+    fam = {r["id"]: _family_group(r["family"]) for r in alloys.alloy_table()}
+    window = None
+    window_text = ""
+    if centre:
+        c = by_id[centre]
+        w_lo, w_hi = c["E_active_V"] - allowed, c["E_noble_V"] + allowed
+        window = [pct(max(w_lo, lo)), pct(min(w_hi, hi))]
+        window_text = (f"Shaded: potentials within {units.fmt(allowed, 'V', 2)} of "
+                       f"{c['label']} (the allowed difference for "
+                       f"{env['name'].lower()}). An alloy whose whole bar sits in the "
+                       "shading is acceptable joined to it.")
+    groups = {}
+    for r in rows:
+        role, role_text, verdict = "other", "", None
+        if r["id"] == centre:
+            role, role_text = ("cathode", "your cathode") if partner else ("mine", "your alloy")
+        elif r["id"] == partner:
+            role, role_text = "anode", "your anode"
+        if centre and r["id"] != centre:
+            cls = VERDICT_CLASS[couple(r["id"], centre, environment)["compatibility"]]
+            verdict = {"class": cls, "label": verdicts.label(cls)}
+        groups.setdefault(fam[r["id"]], []).append({
+            "key": r["id"], "label": r["label"], "fastener": fast[r["id"]],
+            "role": role, "role_text": role_text, "verdict": verdict,
+            "x0": pct(r["E_active_V"]), "x1": pct(r["E_noble_V"]),
+            "range": f"{_v(r['E_active_V'])} to {_v(r['E_noble_V'])}",
+        })
+    mine = {centre, partner} - {None}
+    order = [name for name, _ in FAMILY_GROUPS] + ["Other metals"]
+    out = []
+    for name in sorted(groups, key=lambda g: (not any(x["key"] in mine for x in groups[g]),
+                                              order.index(g))):
+        members = sorted(groups[name], key=lambda x: (x["role"] == "other", x["label"]))
+        out.append({"name": name, "rows": members,
+                    "open": any(x["key"] in mine for x in members) or not mine and not out})
+    return {
+        "title": "Your alloys among the families" if mine else "Alloy families",
+        "groups": out, "window": window, "window_text": window_text, "filters": filters,
+        "axis": (f"Each bar is an alloy's range of corrosion potential on one scale, from "
+                 f"{_v(lo)} at the left (more active: corrodes) to {_v(hi)} at the right "
+                 f"(more noble), vs {ref_label}."),
+        "citation": "Potential ranges: ASTM G82, Fig. 1 (flowing seawater), unless a row's "
+                    "source says otherwise; allowed differences: common practice.",
+    }
 
 
 def compute_series(environment, reference, alloy_a=None, alloy_b=None):
@@ -157,38 +183,57 @@ def compute_series(environment, reference, alloy_a=None, alloy_b=None):
     ref_label = _ref_short(reference)
     rows = ordered_series(environment, reference)
     highlight = [a for a in (alloy_a, alloy_b) if a]
+    centre = partner = None
+    if alloy_a and alloy_b and alloy_a != alloy_b:
+        c = couple(alloy_a, alloy_b, environment)
+        if c["cathode"] not in (OVERLAP, NONE):
+            centre, partner = c["cathode"], c["anode"]
+        else:
+            centre, partner = alloy_a, alloy_b
+    elif highlight:
+        centre = highlight[0]
+    by_id = {r["id"]: r for r in rows}
     rep = Report()
-    rep.headline(f"{len(rows)} alloys from most noble to most active, "
-                 f"V vs {_ref_name(reference)} ({env['name'].lower()}).")
+    if centre and partner:
+        rep.headline(f"{by_id[partner]['label']} is the more active of your two alloys "
+                     f"({env['name'].lower()}); {by_id[centre]['label']} is the cathode.")
+    elif centre:
+        rep.headline(f"{by_id[centre]['label']} among {len(rows)} alloys, and which of "
+                     f"them it can be joined to ({env['name'].lower()}).")
+    else:
+        rep.headline(f"{len(rows)} alloys in {len(FAMILY_GROUPS)} families, potentials vs "
+                     f"{_ref_name(reference)}: enter your alloys to see what they can be "
+                     "joined to.")
     rep.para("Each bar spans the range of corrosion potentials the alloy shows in "
-             "flowing seawater. Of two joined alloys, the one lower in the list "
-             "(further left on the chart) is the anode and corrodes; the further "
-             "apart the bars, the stronger the drive.")
+             "flowing seawater. Of two joined alloys, the one further left is the anode "
+             "and corrodes; the further apart the bars, the stronger the drive.")
     for w in alloys.applicability(environment):
         rep.warn(w)
     if reference != alloys.SERIES_REF:
         rep.note(f"Potentials converted from SCE to {_ref_name(reference)} at 25 °C: "
-                 f"E(vs {reference}) = E(vs SCE) + E_SCE − E_{reference}.")
-    if highlight:
-        ra = [r for r in rows if r["id"] in highlight]
-        names = " and ".join(r["label"] for r in ra)
-        rep.para(f"Highlighted: {names}. Use the pair page for the potential "
-                 "difference and a compatibility verdict.")
-    svg = series_svg(rows, ref_label, highlight)
-    rep.chart("Galvanic series in seawater", str(svg),
-              f"Bar chart of corrosion-potential ranges of {len(rows)} alloys, "
-              f"V vs {ref_label}, most noble at the top.")
-    rep.table(f"Galvanic series (V vs {ref_label})",
-              ["Alloy", "UNS", "State", f"Range, V vs {ref_label}", "Confidence"],
-              [[r["name"], r["uns"] or "—", r["state"],
+                 f"E(vs {ref_label}) = E(vs SCE) + E(SCE) − E({ref_label}).")
+    rep.view(series_view(rows, environment, reference, centre, partner))
+    fam = {r["id"]: _family_group(r["family"]) for r in alloys.alloy_table()}
+    listed = sorted(rows, key=lambda r: ([g for g, _ in FAMILY_GROUPS].index(fam[r["id"]])
+                                         if fam[r["id"]] != "Other metals" else 99, r["name"],
+                                         r["state"]))
+    rep.table(f"Potential ranges by family (V vs {ref_label})",
+              ["Alloy", "Family", "UNS", f"Range, V vs {ref_label}", "Confidence"],
+              [[r["name"] + (f", {r['state']}" if r["state"] in ("passive", "active") else ""),
+                fam[r["id"]], r["uns"] or "—",
                 f"{_v(r['E_active_V'])} to {_v(r['E_noble_V'])}", r["confidence"]]
-               for r in rows],
+               for r in listed],
               note="Source: ASTM G82 Fig. 1 (flowing seawater) unless the row says "
-                   "otherwise. Stainless steels are listed twice: passive and active.",
-              filterable=True, key="alloys", sources=[r["source"] for r in rows])
+                   "otherwise. Stainless steels have two rows: passive and active.",
+              filterable=True, key="alloys",
+              sources=[r["source"] for r in listed])
     rep.row("Environment", env["name"],
             "input: the ranges are those measured in flowing seawater (ASTM G82, Fig. 1); "
             + env["series_applicability"], key="environment")
+    if centre and partner:
+        rep.link("Check this pair", "pair.html",
+                 {"alloy_a": by_id[alloy_a]["label"], "alloy_b": by_id[alloy_b]["label"],
+                  "environment": environment})
     missing = [r["label"] for r in rows if r["confidence"] == "from-memory"]
     if missing:
         rep.warn("Ranges not confirmed against a published source (from memory): "
@@ -278,7 +323,6 @@ EXPLAIN = {
     INCOMPATIBLE: "Even in the best case the potential difference exceeds the {allowed} "
                   "commonly allowed {where}.",
 }
-LABEL = {COMPATIBLE: "Compatible", MARGINAL: "Marginal", INCOMPATIBLE: "Incompatible"}
 
 
 def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
@@ -326,8 +370,7 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
                  f"and corrodes faster than it would alone, while {alloys._label(ca)} "
                  "is protected.")
     allowed_txt = units.fmt(allowed, "V", 2)
-    rep.verdict(VERDICT_CLASS[cls], LABEL[cls],
-                EXPLAIN[cls].format(allowed=allowed_txt, where=where))
+    rep.verdict(VERDICT_CLASS[cls], EXPLAIN[cls].format(allowed=allowed_txt, where=where))
     rep.para("A potential difference tells the direction and the drive, not the rate: a "
              "small anode on a large cathode (a steel bolt in a stainless plate) "
              "corrodes fast; a large anode with a small cathode barely notices.")
@@ -365,8 +408,27 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
         rep.row("Anodic-index difference (cross-check)", units.fmt(ai_diff, "V", 2),
                 alloys.cite_anodic_index(ra))
     rows = [r for r in ordered_series(environment) if r["id"] in (ra["id"], rb["id"])]
-    rep.chart("The pair in the series", str(series_svg(rows, "SCE", [ra["id"], rb["id"]])),
-              f"Potential ranges of {la} and {lb}, V vs SCE.")
+    if c["anode"] not in (NONE, OVERLAP):
+        centre, partner = c["cathode"], c["anode"]
+    else:
+        centre, partner = ra["id"], (rb["id"] if rb["id"] != ra["id"] else None)
+    view = series_view(rows, environment, "sce", centre, partner, filters=False)
+    view["title"] = "The pair on one potential scale"
+    rep.view(view)
+    env_id = env["id"]
+    rep.link(f"Fastener check: {la} fasteners in {lb}", "fastener.html",
+             {"fastener": la, "plate": lb, "environment": env_id})
+    if ra["id"] != rb["id"]:
+        rep.link(f"Fastener check: {lb} fasteners in {la}", "fastener.html",
+                 {"fastener": lb, "plate": la, "environment": env_id})
+    coated = alloys.alloy(c["anode"]) if c["anode"] not in (NONE, OVERLAP) else ra
+    other = rb if coated["id"] == ra["id"] else ra
+    rep.link(f"Coating holidays: coated {alloys._label(coated)} next to "
+             f"{alloys._label(other)}", "holiday.html",
+             {"coated": alloys._label(coated), "other": alloys._label(other),
+              "environment": env_id})
+    rep.link("See both among the alloy families", "series.html",
+             {"alloy_a": la, "alloy_b": lb, "environment": env_id})
     return {
         "alloy_a": ra["id"], "alloy_b": rb["id"], "environment": env["id"],
         "anode": c["anode"], "cathode": c["cathode"], "likely_anode": c["likely_anode"],

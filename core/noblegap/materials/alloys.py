@@ -359,7 +359,7 @@ def potential_range(alloy_id, env_id="seawater_flowing", ref=SERIES_REF):
     if hi is None or lo is None:
         raise MissingDataError(
             f"No galvanic-series potential range for {row['name']} ({row['id']}) in "
-            f"data/alloys.csv (columns E_noble_V_SCE, E_active_V_SCE).",
+            f"the alloy table (its galvanic-series potentials).",
             field="alloy", value=alloy_id)
     if ref == SERIES_REF:
         return hi, lo

@@ -116,7 +116,7 @@ def kinetics_row(alloy_id):
         if r["match"] == f"family:{row['family']}":
             return r
     raise MissingDataError(
-        f"No polarization data for {row['name']} ({alloy_id}) in data/cell_kinetics.csv, "
+        f"No polarization data for {row['name']} ({alloy_id}) in the polarization table, "
         "so its rate cannot be computed.", field="alloy", value=alloy_id,
         allowed="an alloy whose family has a row: "
                 + ", ".join(sorted({r['match'] for r in rows})))

@@ -10,12 +10,13 @@ cathode.
 
 from __future__ import annotations
 
+from ..report import chem
 from . import data
 
 
 def metal_ids():
     """Half-reactions usable as metals (hydrogen excluded)."""
-    return [(r["id"], f"{r['metal']} ({r['reaction']})")
+    return [(r["id"], f"{r['metal']} ({chem(r['reaction'])})")
             for r in data.table("half_reactions")]
 
 

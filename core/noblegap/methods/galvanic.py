@@ -324,7 +324,7 @@ def anode_props(alloy_id, field):
     if row.get("density_g_cm3") is None or row.get("equivalent_weight_g_mol") is None:
         raise MissingDataError(
             f"No density or equivalent weight for {row['name']} ({alloy_id}) in "
-            "data/alloys.csv, so its penetration rate cannot be computed.", field=field,
+            "the alloy table, so its penetration rate cannot be computed.", field=field,
             value=alloy_id, allowed="an alloy with a density and an equivalent weight")
     return row
 

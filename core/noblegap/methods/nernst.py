@@ -274,7 +274,7 @@ def parse_concentration(text, molar_mass_g_mol=None, *, field="conc", ion=""):
         return value * WATER_DENSITY_KG_M3 / C_STANDARD_MOL_M3, "molal"
     if molar_mass_g_mol is None:
         raise MissingDataError(
-            f"No molar mass for {ion or 'this ion'} in data/half_reactions.csv, so a mass "
+            f"No molar mass for {ion or 'this ion'} in the standard-potential table, so a mass "
             "concentration cannot be turned into mol/L.", field=field, value=raw,
             allowed="a molar concentration (mol/L, mmol/L) or a molality (mol/kg)")
     kg_m3 = value if kind == "mass_concentration" else value * WATER_DENSITY_KG_M3

@@ -27,6 +27,23 @@ if (faststart) faststart.catch(() => {});
 
 const post = (msg) => self.postMessage(msg);
 
+// A Python runtime file that fails to arrive is reported at once, so the page
+// can say what failed (a stalled one is caught by the page's own timer).
+const runtimeFetch = self.fetch.bind(self);
+self.fetch = async (input, init) => {
+  const url = String(input && input.url ? input.url : input);
+  const failed = (why) => url.includes("/pyodide/") &&
+    post({ type: "fatal", message: `a runtime file did not arrive (${url.split("/").pop()}: ${why})` });
+  try {
+    const response = await runtimeFetch(input, init);
+    if (!response.ok) failed(`HTTP ${response.status}`);
+    return response;
+  } catch (err) {
+    failed(err && err.message ? err.message : "network error");
+    throw err;
+  }
+};
+
 const fatal = (err) => {
   const message = err && err.message ? err.message : String(err);
   post({ type: MSG.fatal, message });
