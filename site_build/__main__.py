@@ -53,18 +53,20 @@ def build(site: Path = SITE, offline_only: bool = False, compile_pyc: bool = Tru
         runtime.copy_runtime(pyodide_dir, tmp, pin)
         wheels.write_lock(pyodide_dir, packages, tmp / PACKAGES_DIR)
         if fast:
-            from .faststart import snapshot, stdlib
+            from .faststart import compressed, snapshot, stdlib
 
             stdlib_file = stdlib.write_stdlib(pyodide_dir, tmp, pin)
         else:
             stdlib_file = runtime.copy_full_stdlib(pyodide_dir, tmp)
         offline.copy_static(tmp, fast)
         write_names(tmp, site_names(stdlib_file, faststart.FASTSTART_NAMES if fast else None))
+        twins = {}
         if fast:
             snapshot.make_snapshot(tmp, pin, hooks)
+            twins = compressed.write_compressed(tmp)
         api = pages.import_core("api")
         pages.render_pages(tmp, pages.site_globals_for(api, pin), api)
-        manifest = offline.write_manifest_and_sw(tmp, inputs, pin)
+        manifest = offline.write_manifest_and_sw(tmp, inputs, pin, twins)
     except BaseException:
         shutil.rmtree(tmp, ignore_errors=True)
         raise

@@ -33,6 +33,9 @@ FASTSTART_NAMES = {
     # and the browser would hand the worker bytes it cannot check.
     "snapshot_file": "noblegap-snapshot.gzip",
     "stdlib_file": "noblegap-stdlib.zip",
+    # Runtime files shipped with a gzip twin (compressed.py); the fast start
+    # fetches the twin and unpacks it in the worker.
+    "compressed": {"pyodide.asm.wasm": "pyodide.asm.wasm.gzip"},
     # The id a snapshot must carry: both sides fill in this template.
     "build_id": "noblegap-snapshot/{format}|pyodide {pyodide}|lock {lock_sha256}",
 }

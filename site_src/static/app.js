@@ -106,8 +106,9 @@ function engineReady(msg) {
   document.body.dataset.engine = "ready";
   if (msg && msg.mode) document.body.dataset.engineMode = msg.mode;
   engineStatus.textContent = msg && msg.note ? `Live engine ready (${msg.note}).` : "Live engine ready: results update as you type.";
-  compute();
-  registerServiceWorker();
+  // The offline copy is made after the first live result is on screen, so
+  // its downloads never compete with the first visit's start.
+  compute().then(registerServiceWorker, registerServiceWorker);
 }
 
 function engineFailed(message) {

@@ -1,13 +1,31 @@
 // Service worker: the whole site, Pyodide included, works offline after one visit.
 //
-// build.py replaces the marker below with {"cache": name, "files": [paths]}:
-// the cache name carries the site's content hash, so every rebuild that
-// changes a file installs a new cache and drops the old ones.
+// The build (site_build/offline.py) replaces the marker below with
+// {"cache": name, "files": [paths], "unpack": {plain path: gzip path}}: the
+// cache name carries the site's content hash, so every rebuild that changes
+// a file installs a new cache and drops the old ones. A plain file with a
+// gzip twin (the fast start's pre-compressed runtime) is not precached: it
+// is served by unpacking the twin, so nothing is downloaded twice.
 const BUILD = "__NOBLEGAP_BUILD__";
 
 const CACHE = BUILD.cache;
 const SCOPE = new URL("./", self.location.href);
 const PRECACHE = BUILD.files.map((path) => new URL(path, SCOPE).href);
+const UNPACK = new Map(Object.entries(BUILD.unpack ?? {}).map(([plain, packed]) => [
+  new URL(plain, SCOPE).href,
+  new URL(packed, SCOPE).href,
+]));
+const TYPES = { ".wasm": "application/wasm" };
+
+// The plain file from its gzip twin in the cache, or null.
+async function unpacked(cache, url) {
+  const twin = UNPACK.get(url.href.split("?")[0]);
+  if (!twin || typeof DecompressionStream !== "function") return null;
+  const hit = await cache.match(twin);
+  if (!hit) return null;
+  const type = TYPES[url.pathname.slice(url.pathname.lastIndexOf("."))] ?? "application/octet-stream";
+  return new Response(hit.body.pipeThrough(new DecompressionStream("gzip")), { headers: { "Content-Type": type } });
+}
 
 self.addEventListener("install", (event) => {
   event.waitUntil(
@@ -55,7 +73,7 @@ self.addEventListener("fetch", (event) => {
         const hit = await cache.match(page.href, { ignoreSearch: true });
         if (hit) return hit;
       } else {
-        const hit = await cache.match(request);
+        const hit = (await cache.match(request)) ?? (await unpacked(cache, url));
         if (hit) return hit;
       }
       return fetch(request);

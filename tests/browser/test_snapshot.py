@@ -203,7 +203,9 @@ def test_snapshot_start_downloads_each_file_once_and_no_wheel(page, server):
     wait_live(page, 0)
     assert page.get_attribute("body", "data-engine-mode") == "snapshot"
     names = [url.rsplit("/", 1)[-1].split("?")[0] for url in seen]
-    for name in ["pyodide.asm.wasm", "pyodide.asm.mjs", "noblegap-stdlib.zip", "noblegap-snapshot.gzip"]:
+    for name in ["pyodide.asm.wasm.gzip", "pyodide.asm.mjs", "noblegap-stdlib.zip", "noblegap-snapshot.gzip"]:
         assert names.count(name) == 1, (name, names)
+    # the runtime comes pre-compressed, the plain binary is not fetched
+    assert "pyodide.asm.wasm" not in names, names
     assert not [n for n in names if n.endswith(".whl")], names
     assert "python_stdlib.zip" not in names

@@ -5,7 +5,8 @@
 // without this folder the site starts the normal way. Everything private
 // lives here and in restore.mjs (FORMAT.md in site_build/faststart/ lists
 // it, with the Pyodide version reviewed): loadPyodide's _loadSnapshot, and
-// the wrapped fetch / WebAssembly.instantiateStreaming (restore.mjs).
+// the wrapped fetch / WebAssembly.instantiateStreaming (restore.mjs), which
+// also compiles the runtime from its pre-compressed twin.
 //
 // The build boots Pyodide under Node, installs the engine's packages, runs
 // noblegap.engine_hooks.warm_up() and saves the WebAssembly memory
@@ -124,9 +125,11 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   for (const promise of [checked, container, memory]) promise.catch(() => {});
   // The runtime's binary, compiled as soon as its response arrives; its
   // memory, once instantiated, holds the base the snapshot is a delta against.
-  const wasmURL =
-    typeof location === "undefined" ? null : new URL("pyodide.asm.wasm", new URL(indexURL, location)).href;
-  const capture = captureRuntimeWasm(wasmURL);
+  // From its gzip twin (names.json "compressed") when the site has one.
+  const runtimeBase = typeof location === "undefined" ? null : new URL(indexURL, location);
+  const wasmURL = runtimeBase && new URL("pyodide.asm.wasm", runtimeBase).href;
+  const packed = FAST.compressed?.["pyodide.asm.wasm"];
+  const capture = captureRuntimeWasm(wasmURL, runtimeBase && packed ? new URL(packed, runtimeBase).href : null);
   // What needs no runtime is written as soon as the container is here:
   // Pyodide's header and the pages past the base.
   const paged = Promise.all([container, memory]).then(([snapshot, target]) => {
