@@ -44,6 +44,7 @@ import bench  # noqa: E402
 RATE_BPS = 20e6 / 8          # 20 Mbit/s
 LATENCY_S = 0.040
 CPU_RATE = 4
+PHASES_TO_STDERR = False
 PAGES = {
     "lightest": ("couple.html", {"metal_a": "Mg", "metal_b": "Au"}),
     "heaviest": ("holiday.html", None),   # the example with one field changed (below)
@@ -94,6 +95,11 @@ def first_live(context, url, timeout_s, cpu_rate):
         time.sleep(0.02)
     state = page.get_attribute("#result", "data-state")
     mode = page.get_attribute("body", "data-engine-mode")
+    if PHASES_TO_STDERR:
+        timings = marks.get("workerTimings") or {}
+        print(f"    {url.split('?')[0].rsplit('/', 1)[-1]}: worker created {marks.get('workerCreated', 0):.0f} ms, "
+              f"first live {marks.get('firstLive') or 0:.0f} ms; worker: "
+              + ", ".join(f"{k} {v:.0f}" for k, v in timings.items()), file=sys.stderr, flush=True)
     return page, marks.get("firstLive"), state, mode
 
 
@@ -117,7 +123,10 @@ def main(argv=None) -> int:
     parser.add_argument("--markdown", action="store_true")
     parser.add_argument("--devices", default="plain,tablet")
     parser.add_argument("--hosts", default="plain,gzip")
+    parser.add_argument("--phases", action="store_true", help="print each visit's engine phases on stderr")
     args = parser.parse_args(argv)
+    global PHASES_TO_STDERR
+    PHASES_TO_STDERR = args.phases
     from playwright.sync_api import sync_playwright
 
     build = bench.load_build()

@@ -32,6 +32,9 @@ FASTSTART_NAMES = {
     # Not ".gz": some static hosts would send Content-Encoding: gzip for it,
     # and the browser would hand the worker bytes it cannot check.
     "snapshot_file": "noblegap-snapshot.gzip",
+    # Not a file of the site: the service worker unpacks the snapshot once
+    # into its offline copy under this name, so later visits skip the gunzip.
+    "unpacked_snapshot_file": "noblegap-snapshot.container",
     "stdlib_file": "noblegap-stdlib.zip",
     # Runtime files shipped with a gzip twin (compressed.py); the fast start
     # fetches the twin and unpacks it in the worker.

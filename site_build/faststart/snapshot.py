@@ -109,6 +109,7 @@ def make_snapshot(site: Path, pin: dict, api_hooks) -> dict | None:
             gz_path.write_bytes(gzip.compress(container, compresslevel=9, mtime=0))
             shutil.copyfile(Path(tmp) / "memory.bin", memory_path)
             report["raw_size"] = len(container)
+            report["raw_sha256"] = hashlib.sha256(container).hexdigest()
             report_path.write_text(json.dumps(report))
     report = json.loads(report_path.read_text())
     shutil.copyfile(gz_path, packages / SNAPSHOT_FILE)
@@ -125,6 +126,7 @@ def make_snapshot(site: Path, pin: dict, api_hooks) -> dict | None:
         "sha256_b64": base64.b64encode(digest).decode(),
         "size": gz_path.stat().st_size,
         "raw_size": report["raw_size"],
+        "raw_sha256": report["raw_sha256"],
         "memory_size": report["memory_size"],
         "package_files": len(files),
         "known_case": api_hooks.known_case(),

@@ -4,7 +4,15 @@
 // imports have been fetched. app.js imports it too: a module runs once per
 // page, so there is one worker whichever script gets here first. The
 // worker's messages are kept until app.js takes them with takeEarly().
-export const worker = new Worker(new URL("./engine/worker.js", import.meta.url), { type: "module" });
+//
+// The worker's name says whether a service worker serves this page: the
+// fast start then compiles the runtime from the offline copy's stored plain
+// file instead of unpacking its gzip twin again (engine/faststart/start.mjs).
+const served = Boolean(navigator.serviceWorker && navigator.serviceWorker.controller);
+export const worker = new Worker(new URL("./engine/worker.js", import.meta.url), {
+  type: "module",
+  name: served ? "noblegap engine (offline copy)" : "noblegap engine",
+});
 const kept = [];
 const keep = (event) => kept.push(event);
 worker.addEventListener("message", keep);

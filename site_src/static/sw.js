@@ -4,8 +4,10 @@
 // {"cache": name, "files": [paths], "unpack": {plain path: gzip path}}: the
 // cache name carries the site's content hash, so every rebuild that changes
 // a file installs a new cache and drops the old ones. A plain file with a
-// gzip twin (the fast start's pre-compressed runtime) is not precached: it
-// is served by unpacking the twin, so nothing is downloaded twice.
+// gzip twin (the fast start's pre-compressed runtime) is not downloaded: the
+// install unpacks the twin into the cache under the plain file's URL, so
+// nothing is downloaded twice, and a later visit compiles the runtime from
+// a stored response (which the browser may keep compiled code for).
 const BUILD = "__NOBLEGAP_BUILD__";
 
 const CACHE = BUILD.cache;
@@ -15,15 +17,16 @@ const UNPACK = new Map(Object.entries(BUILD.unpack ?? {}).map(([plain, packed]) 
   new URL(plain, SCOPE).href,
   new URL(packed, SCOPE).href,
 ]));
-const TYPES = { ".wasm": "application/wasm" };
+const TYPES = { ".wasm": "application/wasm", ".container": "application/octet-stream" };
 
 // The plain file from its gzip twin in the cache, or null.
-async function unpacked(cache, url) {
-  const twin = UNPACK.get(url.href.split("?")[0]);
+async function unpacked(cache, plainURL) {
+  const twin = UNPACK.get(plainURL);
   if (!twin || typeof DecompressionStream !== "function") return null;
   const hit = await cache.match(twin);
   if (!hit) return null;
-  const type = TYPES[url.pathname.slice(url.pathname.lastIndexOf("."))] ?? "application/octet-stream";
+  const path = new URL(plainURL).pathname;
+  const type = TYPES[path.slice(path.lastIndexOf("."))] ?? "application/octet-stream";
   return new Response(hit.body.pipeThrough(new DecompressionStream("gzip")), { headers: { "Content-Type": type } });
 }
 
@@ -35,6 +38,10 @@ self.addEventListener("install", (event) => {
       // server: a file the page has just downloaded costs a 304, and a new
       // build never mixes in files of the old one.
       await cache.addAll(PRECACHE.map((url) => new Request(url, { cache: "no-cache" })));
+      for (const plainURL of UNPACK.keys()) {
+        const response = await unpacked(cache, plainURL);
+        if (response) await cache.put(plainURL, response);
+      }
       await self.skipWaiting();
     })(),
   );
@@ -73,7 +80,7 @@ self.addEventListener("fetch", (event) => {
         const hit = await cache.match(page.href, { ignoreSearch: true });
         if (hit) return hit;
       } else {
-        const hit = (await cache.match(request)) ?? (await unpacked(cache, url));
+        const hit = (await cache.match(request)) ?? (await unpacked(cache, url.href.split("?")[0]));
         if (hit) return hit;
       }
       return fetch(request);
