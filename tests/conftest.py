@@ -6,3 +6,10 @@ from pathlib import Path
 CORE = Path(__file__).resolve().parents[1] / "core"
 if str(CORE) not in sys.path:
     sys.path.insert(0, str(CORE))
+
+
+def pytest_ignore_collect(collection_path, config):
+    """The doctest collector (``--doctest-modules``, pyproject.toml) would
+    import every conftest.py as a module named ``conftest``; they are loaded
+    as conftests, never collected."""
+    return True if collection_path.name == "conftest.py" else None
