@@ -208,16 +208,8 @@ class GzipCache:
 
 
 def make_server(build, site: Path, bench_dir: Path, counter: ByteCounter, gz: GzipCache,
-                gzip_host: bool = True, link=None):
-    """The bench's server: a gzip host (or, with gzip_host=False, a plain one),
-    on loopback or paced by ``link`` (bench/tablet.py's emulated link)."""
-
-    def send(outputfile, data):
-        for at in range(0, len(data), 16 * 1024):
-            block = data[at:at + 16 * 1024]
-            if link is not None:
-                link.wait(len(block))
-            outputfile.write(block)
+                gzip_host: bool = True):
+    """The bench's server: a gzip host, or with gzip_host=False a plain one."""
 
     class Handler(build.SiteHandler):
         def translate_path(self, path):
@@ -231,8 +223,6 @@ def make_server(build, site: Path, bench_dir: Path, counter: ByteCounter, gz: Gz
             return gzip_host and "gzip" in accept and os.path.isfile(path) and not path.endswith(PRECOMPRESSED)
 
         def send_head(self):
-            if link is not None:
-                time.sleep(link.latency)
             path = self.translate_path(self.path)
             if self.command == "GET" and self._gzip_ok(path):
                 mtime = int(os.path.getmtime(path))
@@ -253,7 +243,7 @@ def make_server(build, site: Path, bench_dir: Path, counter: ByteCounter, gz: Gz
                 self.send_header("Content-Length", str(len(body)))
                 self.send_header("Vary", "Accept-Encoding")
                 self.end_headers()
-                send(self.wfile, body)
+                self.wfile.write(body)
                 counter.add(len(body), os.path.getsize(path))
                 return None
             return super().send_head()
@@ -263,7 +253,7 @@ def make_server(build, site: Path, bench_dir: Path, counter: ByteCounter, gz: Gz
                 block = source.read(64 * 1024)
                 if not block:
                     break
-                send(outputfile, block)
+                outputfile.write(block)
                 counter.add(len(block), len(block))
 
         def send_response(self, code, message=None):

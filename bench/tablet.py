@@ -16,11 +16,9 @@ already), on a fresh profile:
   result, first visit and second visit (service worker installed),
 
 and prints each page's time over the bare boot's on the same visit, side by
-side. The link is emulated by the bench's server (one shared 20 Mbit/s
-token bucket for every response, 40 ms before each response's first byte):
-``Network.emulateNetworkConditions`` on the page's DevTools target does not
-slow the requests a dedicated Web Worker makes, and the engine's downloads
-are all the worker's.
+side. The tablet's link is ``Network.emulateNetworkConditions`` on the
+page's DevTools target (it slows the page's dedicated Web Worker too, one
+link shared by both: checked with a 9.6 MB download from each at once).
 
 Targets (tablet, plain host, a shared link): first visit <= 0.6 x the bare
 boot's first visit, second visit <= 0.25 x the bare boot's second visit.
@@ -51,25 +49,6 @@ PAGES = {
 }
 
 
-class Link:
-    """One shared link: every byte sent waits its turn at RATE_BPS."""
-
-    def __init__(self, rate=RATE_BPS, latency=LATENCY_S):
-        self.rate, self.latency = rate, latency
-        self.lock = threading.Lock()
-        self.free_at = 0.0
-
-    def wait(self, n):
-        with self.lock:
-            now = time.monotonic()
-            start = max(now, self.free_at)
-            self.free_at = start + n / self.rate
-            until = self.free_at
-        delay = until - time.monotonic()
-        if delay > 0:
-            time.sleep(delay)
-
-
 def heavy_inputs():
     sys.path.insert(0, str(bench.ROOT / "core"))
     from noblegap import api
@@ -79,11 +58,21 @@ def heavy_inputs():
     return example
 
 
-def first_live(context, url, timeout_s, cpu_rate):
+def emulate(context, page, tablet):
+    """The tablet's CPU and link on this page (and its workers), through the DevTools protocol."""
+    if not tablet:
+        return
+    cdp = context.new_cdp_session(page)
+    cdp.send("Emulation.setCPUThrottlingRate", {"rate": CPU_RATE})
+    cdp.send("Network.enable")
+    cdp.send("Network.emulateNetworkConditions", {
+        "offline": False, "latency": LATENCY_S * 1000,
+        "downloadThroughput": RATE_BPS, "uploadThroughput": RATE_BPS})
+
+
+def first_live(context, url, timeout_s, tablet):
     page = context.new_page()
-    if cpu_rate > 1:
-        cdp = context.new_cdp_session(page)
-        cdp.send("Emulation.setCPUThrottlingRate", {"rate": cpu_rate})
+    emulate(context, page, tablet)
     page.goto(url)
     bench.wait_attr(page, 'body[data-engine="ready"]', timeout_s)
     deadline = time.monotonic() + timeout_s
@@ -103,11 +92,9 @@ def first_live(context, url, timeout_s, cpu_rate):
     return page, marks.get("firstLive"), state, mode
 
 
-def bare_boot(context, url, timeout_s, cpu_rate):
+def bare_boot(context, url, timeout_s, tablet):
     page = context.new_page()
-    if cpu_rate > 1:
-        cdp = context.new_cdp_session(page)
-        cdp.send("Emulation.setCPUThrottlingRate", {"rate": cpu_rate})
+    emulate(context, page, tablet)
     page.goto(url)
     bench.wait_attr(page, "body[data-done]", timeout_s)
     if page.get_attribute("body", "data-done") != "ok":
@@ -147,12 +134,11 @@ def main(argv=None) -> int:
         for device in args.devices.split(","):
             for host in args.hosts.split(","):
                 counter = bench.ByteCounter()
-                link = Link() if device == "tablet" else None
-                server = bench.make_server(build, site, bench_dir, counter, gz, gzip_host=host == "gzip", link=link)
+                server = bench.make_server(build, site, bench_dir, counter, gz, gzip_host=host == "gzip")
                 thread = threading.Thread(target=server.serve_forever, daemon=True)
                 thread.start()
                 base = f"http://127.0.0.1:{server.server_address[1]}/"
-                cpu = CPU_RATE if device == "tablet" else 1
+                tablet = device == "tablet"
                 row = results[(device, host)] = {}
                 try:
                     def fresh(**kw):
@@ -163,23 +149,23 @@ def main(argv=None) -> int:
                     ctx = fresh(service_workers="block")
                     boot_url = base + bench.BENCH_PREFIX.lstrip("/") + "boot.html"
                     counter.reset()
-                    row["bare first"] = bare_boot(ctx, boot_url, args.timeout, cpu)
+                    row["bare first"] = bare_boot(ctx, boot_url, args.timeout, tablet)
                     row["bare first bytes"] = counter.bytes
                     counter.reset()
-                    row["bare second"] = bare_boot(ctx, boot_url, args.timeout, cpu)
+                    row["bare second"] = bare_boot(ctx, boot_url, args.timeout, tablet)
                     ctx.close()
                     for name, url in links.items():
                         ctx = fresh()
                         ctx.add_init_script(bench.TIMING_INIT_SCRIPT)
                         counter.reset()
-                        page, ms, state, mode = first_live(ctx, base + url, args.timeout, cpu)
+                        page, ms, state, mode = first_live(ctx, base + url, args.timeout, tablet)
                         row[f"{name} first bytes"] = counter.bytes
                         row[f"{name} first"], row[f"{name} mode"] = ms, mode
                         if state != "live":
                             raise RuntimeError(f"{url}: result state {state}")
                         page.evaluate("async () => { await navigator.serviceWorker.ready; }")
                         page.close()
-                        page, ms, state, mode = first_live(ctx, base + url, args.timeout, cpu)
+                        page, ms, state, mode = first_live(ctx, base + url, args.timeout, tablet)
                         row[f"{name} second"] = ms
                         page.close()
                         ctx.close()
@@ -198,7 +184,7 @@ def report(results, links, markdown):
     when = datetime.datetime.now().astimezone().isoformat(timespec="seconds")
     lines = [f"date: {when}", f"machine: {bench.machine()}",
              f"tablet: CPU x{CPU_RATE} (Emulation.setCPUThrottlingRate), link {RATE_BPS * 8 / 1e6:.0f} Mbit/s, "
-             f"{LATENCY_S * 1000:.0f} ms; shared links: {', '.join(links.values())}", ""]
+             f"{LATENCY_S * 1000:.0f} ms (Network.emulateNetworkConditions); shared links: {', '.join(links.values())}", ""]
     head = ["device", "host", "visit", "bare boot", "lightest", "ratio", "heaviest", "ratio", "first-visit MB (bare / lightest)"]
     rows = []
     for (device, host), r in results.items():
