@@ -11,7 +11,7 @@ import zipfile
 import pytest
 
 from _site import build_options, ensure_site, serve_site
-from site_build import offline, pages, paths, runtime, wheels
+from site_build import offline, pages, paths, wheels
 from site_build.names import NAMES
 
 
