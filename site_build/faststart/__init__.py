@@ -66,3 +66,14 @@ def available(pin: dict) -> bool:
         log("WARNING: no fast start: node is needed to make the memory snapshot")
         return False
     return True
+
+
+def build(site: Path, pyodide_dir: Path, pin: dict, hooks) -> dict[str, str]:
+    """The stage: trimmed standard library, memory snapshot, pre-compressed
+    runtime, into ``site`` (which has its lock file, static files and
+    names.json already). Returns {plain file: gzip twin} for the service worker."""
+    from . import compressed, snapshot, stdlib
+
+    stdlib.write_stdlib(pyodide_dir, site, pin)
+    snapshot.make_snapshot(site, pin, hooks)
+    return compressed.write_compressed(site)
