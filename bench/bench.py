@@ -44,7 +44,6 @@ import argparse
 import datetime
 import email.utils
 import gzip
-import importlib.util
 import os
 import platform
 import shutil
@@ -149,11 +148,19 @@ TIMING_INIT_SCRIPT = """
 
 
 def load_build():
-    spec = importlib.util.spec_from_file_location("noblegap_build", ROOT / "build.py")
-    mod = importlib.util.module_from_spec(spec)
-    sys.modules["noblegap_build"] = mod
-    spec.loader.exec_module(mod)
-    return mod
+    """The build's stages the bench uses, under the names it uses."""
+    import types
+
+    if str(ROOT) not in sys.path:
+        sys.path.insert(0, str(ROOT))
+    from site_build import offline, paths, runtime, serve
+    from site_build.__main__ import build_options
+
+    return types.SimpleNamespace(
+        SITE=paths.SITE, SiteHandler=serve.SiteHandler, SiteServer=serve.SiteServer,
+        fetch_pyodide=runtime.fetch_pyodide, load_pyodide_pin=paths.load_pyodide_pin,
+        site_is_current=lambda site: offline.site_is_current(site, build_options()),
+    )
 
 
 class ByteCounter:
@@ -200,7 +207,10 @@ class GzipCache:
                 self.get(str(p))
 
 
-def make_server(build, site: Path, bench_dir: Path, counter: ByteCounter, gz: GzipCache):
+def make_server(build, site: Path, bench_dir: Path, counter: ByteCounter, gz: GzipCache,
+                gzip_host: bool = True):
+    """The bench's server: a gzip host, or with gzip_host=False a plain one."""
+
     class Handler(build.SiteHandler):
         def translate_path(self, path):
             if path.startswith(BENCH_PREFIX):
@@ -210,7 +220,7 @@ def make_server(build, site: Path, bench_dir: Path, counter: ByteCounter, gz: Gz
 
         def _gzip_ok(self, path):
             accept = self.headers.get("Accept-Encoding", "")
-            return "gzip" in accept and os.path.isfile(path) and not path.endswith(PRECOMPRESSED)
+            return gzip_host and "gzip" in accept and os.path.isfile(path) and not path.endswith(PRECOMPRESSED)
 
         def send_head(self):
             path = self.translate_path(self.path)

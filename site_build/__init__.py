@@ -5,9 +5,10 @@ the pipeline and names the stages in order, one module each:
 
     runtime    the pinned Pyodide from npm, integrity-checked
     wheels     PyPI wheels + our own wheel, byte-compiled inside Pyodide, lock file
-    faststart  (optional) trimmed standard library + memory snapshot
+    offline    static files and names.json (names.py: the names JS shares)
+    faststart  (optional) trimmed standard library, memory snapshot, pre-compressed runtime
     pages      every page rendered on CPython, with its example computed
-    offline    static files, names.json, service worker, build manifest
+    offline    service worker precache list, build manifest
     serve      the local server (127.0.0.1, with the site's CSP)
 
 The build reads core/, data/, site_src/, pins/ and this package; never tests/.

@@ -50,21 +50,21 @@ def build(site: Path = SITE, offline_only: bool = False, compile_pyc: bool = Tru
         shutil.rmtree(tmp)
     tmp.mkdir(parents=True)
     try:
+        # runtime: the pinned Pyodide's files (and without the fast start its whole stdlib)
         runtime.copy_runtime(pyodide_dir, tmp, pin)
+        stdlib_file = faststart.FASTSTART_NAMES["stdlib_file"] if fast else runtime.copy_full_stdlib(pyodide_dir, tmp)
+        # wheels: the engine's packages and the lock file
         wheels.write_lock(pyodide_dir, packages, tmp / PACKAGES_DIR)
-        if fast:
-            from .faststart import snapshot, stdlib
-
-            stdlib_file = stdlib.write_stdlib(pyodide_dir, tmp, pin)
-        else:
-            stdlib_file = runtime.copy_full_stdlib(pyodide_dir, tmp)
+        # offline, static part: scripts, styles, icons, and names.json
         offline.copy_static(tmp, fast)
         write_names(tmp, site_names(stdlib_file, faststart.FASTSTART_NAMES if fast else None))
-        if fast:
-            snapshot.make_snapshot(tmp, pin, hooks)
+        # faststart (optional): trimmed stdlib, memory snapshot, pre-compressed runtime
+        twins = faststart.build(tmp, pyodide_dir, pin, hooks) if fast else {}
+        # pages: every page rendered on CPython with its example computed
         api = pages.import_core("api")
         pages.render_pages(tmp, pages.site_globals_for(api, pin), api)
-        manifest = offline.write_manifest_and_sw(tmp, inputs, pin)
+        # offline: the service worker's precache list and the build manifest
+        manifest = offline.write_manifest_and_sw(tmp, inputs, pin, twins)
     except BaseException:
         shutil.rmtree(tmp, ignore_errors=True)
         raise

@@ -71,7 +71,14 @@ def copy_static(site: Path, faststart: bool) -> None:
         shutil.copyfile(p, dest)
 
 
-def write_manifest_and_sw(site: Path, inputs: str, pin: dict) -> dict:
+def write_manifest_and_sw(site: Path, inputs: str, pin: dict, twins: dict[str, str] | None = None) -> dict:
+    """build-manifest.json, and sw.js with the files to precache.
+
+    ``twins`` maps a plain file to its gzip twin (the fast start's
+    pre-compressed runtime): the service worker precaches the twin only and
+    serves the plain file by unpacking it, so no byte is downloaded twice.
+    """
+    twins = twins or {}
     files = {}
     for p in sorted(site.rglob("*")):
         rel = p.relative_to(site).as_posix()
@@ -94,7 +101,7 @@ def write_manifest_and_sw(site: Path, inputs: str, pin: dict) -> dict:
     text = (STATIC / SW_NAME).read_text()
     if text.count(SW_MARKER) != 1:
         raise BuildError(f"site_src/static/{SW_NAME} must contain {SW_MARKER} exactly once")
-    build = {"cache": cache_name, "files": sorted(files)}
+    build = {"cache": cache_name, "files": sorted(set(files) - set(twins)), "unpack": twins}
     (site / SW_NAME).write_text(text.replace(SW_MARKER, json.dumps(build, separators=(",", ":"))))
     (site / MANIFEST_NAME).write_text(json.dumps(manifest, indent=1) + "\n")
     return manifest

@@ -106,7 +106,7 @@ def build_core_wheel() -> Path:
         if p.is_file() and "__pycache__" not in p.parts and p.suffix not in (".pyc", ".pyo"):
             rel = p.relative_to(CORE).as_posix()
             if rel.startswith("noblegap/_data/"):
-                raise BuildError(f"core/{rel}: tables belong in data/, which build.py copies into _data/")
+                raise BuildError(f"core/{rel}: tables belong in data/, which the build copies into _data/")
             members[rel] = p.read_bytes()
     for p in sorted(DATA.glob("*.csv")):
         members[f"noblegap/_data/{p.name}"] = p.read_bytes()

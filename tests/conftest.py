@@ -14,3 +14,9 @@ from hypothesis import settings  # noqa: E402
 
 settings.register_profile("noblegap", deadline=None)
 settings.load_profile("noblegap")
+
+def pytest_ignore_collect(collection_path, config):
+    """The doctest collector (``--doctest-modules``, pyproject.toml) would
+    import every conftest.py as a module named ``conftest``; they are loaded
+    as conftests, never collected."""
+    return True if collection_path.name == "conftest.py" else None

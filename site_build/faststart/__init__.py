@@ -32,7 +32,13 @@ FASTSTART_NAMES = {
     # Not ".gz": some static hosts would send Content-Encoding: gzip for it,
     # and the browser would hand the worker bytes it cannot check.
     "snapshot_file": "noblegap-snapshot.gzip",
+    # Not a file of the site: the service worker unpacks the snapshot once
+    # into its offline copy under this name, so later visits skip the gunzip.
+    "unpacked_snapshot_file": "noblegap-snapshot.container",
     "stdlib_file": "noblegap-stdlib.zip",
+    # Runtime files shipped with a gzip twin (compressed.py); the fast start
+    # fetches the twin and unpacks it in the worker.
+    "compressed": {"pyodide.asm.wasm": "pyodide.asm.wasm.gzip"},
     # The id a snapshot must carry: both sides fill in this template.
     "build_id": "noblegap-snapshot/{format}|pyodide {pyodide}|lock {lock_sha256}",
 }
@@ -60,3 +66,14 @@ def available(pin: dict) -> bool:
         log("WARNING: no fast start: node is needed to make the memory snapshot")
         return False
     return True
+
+
+def build(site: Path, pyodide_dir: Path, pin: dict, hooks) -> dict[str, str]:
+    """The stage: trimmed standard library, memory snapshot, pre-compressed
+    runtime, into ``site`` (which has its lock file, static files and
+    names.json already). Returns {plain file: gzip twin} for the service worker."""
+    from . import compressed, snapshot, stdlib
+
+    stdlib.write_stdlib(pyodide_dir, site, pin)
+    snapshot.make_snapshot(site, pin, hooks)
+    return compressed.write_compressed(site)

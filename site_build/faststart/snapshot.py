@@ -58,9 +58,10 @@ def _unpack_locked_wheels(packages: Path, lock: dict) -> dict[str, bytes]:
     return dict(sorted(files.items()))
 
 
-def make_snapshot(site: Path, pin: dict, api_hooks) -> dict | None:
+def make_snapshot(site: Path, pin: dict, hooks) -> dict:
     """Write packages/noblegap-snapshot.{gzip,json} into ``site``; cached in .cache/snapshot/.
 
+    ``hooks`` is noblegap.engine_hooks on CPython (the known case's answer).
     Returns the sidecar. Only for a reviewed Pyodide (``available``).
     """
     reviewed = REVIEWED[pin["version"]]
@@ -109,6 +110,7 @@ def make_snapshot(site: Path, pin: dict, api_hooks) -> dict | None:
             gz_path.write_bytes(gzip.compress(container, compresslevel=9, mtime=0))
             shutil.copyfile(Path(tmp) / "memory.bin", memory_path)
             report["raw_size"] = len(container)
+            report["raw_sha256"] = hashlib.sha256(container).hexdigest()
             report_path.write_text(json.dumps(report))
     report = json.loads(report_path.read_text())
     shutil.copyfile(gz_path, packages / SNAPSHOT_FILE)
@@ -125,9 +127,10 @@ def make_snapshot(site: Path, pin: dict, api_hooks) -> dict | None:
         "sha256_b64": base64.b64encode(digest).decode(),
         "size": gz_path.stat().st_size,
         "raw_size": report["raw_size"],
+        "raw_sha256": report["raw_sha256"],
         "memory_size": report["memory_size"],
         "package_files": len(files),
-        "known_case": api_hooks.known_case(),
+        "known_case": hooks.known_case(),
     }
     (packages / SNAPSHOT_INFO).write_text(json.dumps(info, indent=1) + "\n")
     verify_snapshot(site, info)

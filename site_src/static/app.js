@@ -194,8 +194,10 @@ function engineReady(msg) {
     ? `${OVERRAN_TEXT} Live engine restarted: results update as you type.`
     : msg && msg.note ? `Live engine ready (${msg.note}).` : "Live engine ready: results update as you type.";
   for (const id of waiting.keys()) armWatchdog(id);
-  if (!restarted) registerServiceWorker();
-  compute();
+  // The offline copy is made after the first live result is on screen, so
+  // its downloads never compete with the first visit's start.
+  const first = compute();
+  if (!restarted) first.then(registerServiceWorker, registerServiceWorker);
 }
 
 function engineFailed(message) {

@@ -4,9 +4,18 @@
 // imports have been fetched. app.js imports it too: a module runs once per
 // page, so there is one worker whichever script gets here first. The
 // worker's messages are kept until app.js takes them with takeEarly().
+//
+// The worker's name says whether a service worker serves this page: the
+// fast start then compiles the runtime from the offline copy's stored plain
+// file instead of unpacking its gzip twin again (engine/faststart/start.mjs).
 const WORKER_URL = new URL("./engine/worker.js", import.meta.url);
+const served = Boolean(navigator.serviceWorker && navigator.serviceWorker.controller);
+const WORKER_OPTIONS = {
+  type: "module",
+  name: served ? "noblegap engine (offline copy)" : "noblegap engine",
+};
 
-export let worker = new Worker(WORKER_URL, { type: "module" });
+export let worker = new Worker(WORKER_URL, WORKER_OPTIONS);
 const kept = [];
 const keep = (event) => kept.push(event);
 worker.addEventListener("message", keep);
@@ -27,6 +36,6 @@ export function takeEarly() {
 export function restartWorker() {
   takeEarly();
   worker.terminate();
-  worker = new Worker(WORKER_URL, { type: "module" });
+  worker = new Worker(WORKER_URL, WORKER_OPTIONS);
   return worker;
 }

@@ -1,13 +1,34 @@
 // Service worker: the whole site, Pyodide included, works offline after one visit.
 //
-// build.py replaces the marker below with {"cache": name, "files": [paths]}:
-// the cache name carries the site's content hash, so every rebuild that
-// changes a file installs a new cache and drops the old ones.
+// The build (site_build/offline.py) replaces the marker below with
+// {"cache": name, "files": [paths], "unpack": {plain path: gzip path}}: the
+// cache name carries the site's content hash, so every rebuild that changes
+// a file installs a new cache and drops the old ones. A plain file with a
+// gzip twin (the fast start's pre-compressed runtime) is not downloaded: the
+// install unpacks the twin into the cache under the plain file's URL, so
+// nothing is downloaded twice, and a later visit compiles the runtime from
+// a stored response (which the browser may keep compiled code for).
 const BUILD = "__NOBLEGAP_BUILD__";
 
 const CACHE = BUILD.cache;
 const SCOPE = new URL("./", self.location.href);
 const PRECACHE = BUILD.files.map((path) => new URL(path, SCOPE).href);
+const UNPACK = new Map(Object.entries(BUILD.unpack ?? {}).map(([plain, packed]) => [
+  new URL(plain, SCOPE).href,
+  new URL(packed, SCOPE).href,
+]));
+const TYPES = { ".wasm": "application/wasm", ".container": "application/octet-stream" };
+
+// The plain file from its gzip twin in the cache, or null.
+async function unpacked(cache, plainURL) {
+  const twin = UNPACK.get(plainURL);
+  if (!twin || typeof DecompressionStream !== "function") return null;
+  const hit = await cache.match(twin);
+  if (!hit) return null;
+  const path = new URL(plainURL).pathname;
+  const type = TYPES[path.slice(path.lastIndexOf("."))] ?? "application/octet-stream";
+  return new Response(hit.body.pipeThrough(new DecompressionStream("gzip")), { headers: { "Content-Type": type } });
+}
 
 self.addEventListener("install", (event) => {
   event.waitUntil(
@@ -17,6 +38,10 @@ self.addEventListener("install", (event) => {
       // server: a file the page has just downloaded costs a 304, and a new
       // build never mixes in files of the old one.
       await cache.addAll(PRECACHE.map((url) => new Request(url, { cache: "no-cache" })));
+      for (const plainURL of UNPACK.keys()) {
+        const response = await unpacked(cache, plainURL);
+        if (response) await cache.put(plainURL, response);
+      }
       await self.skipWaiting();
     })(),
   );
@@ -55,7 +80,7 @@ self.addEventListener("fetch", (event) => {
         const hit = await cache.match(page.href, { ignoreSearch: true });
         if (hit) return hit;
       } else {
-        const hit = await cache.match(request);
+        const hit = (await cache.match(request)) ?? (await unpacked(cache, url.href.split("?")[0]));
         if (hit) return hit;
       }
       return fetch(request);

@@ -12,7 +12,7 @@ import json
 
 import pytest
 
-from conftest import wait_live
+from conftest import wait_for, wait_live
 from noblegap import api
 
 SNAPSHOT_INFO = "**/packages/noblegap-snapshot.json"
@@ -203,7 +203,49 @@ def test_snapshot_start_downloads_each_file_once_and_no_wheel(page, server):
     wait_live(page, 0)
     assert page.get_attribute("body", "data-engine-mode") == "snapshot"
     names = [url.rsplit("/", 1)[-1].split("?")[0] for url in seen]
-    for name in ["pyodide.asm.wasm", "pyodide.asm.mjs", "noblegap-stdlib.zip", "noblegap-snapshot.gzip"]:
+    for name in ["pyodide.asm.wasm.gzip", "pyodide.asm.mjs", "noblegap-stdlib.zip", "noblegap-snapshot.gzip"]:
         assert names.count(name) == 1, (name, names)
+    # the runtime comes pre-compressed, the plain binary is not fetched
+    assert "pyodide.asm.wasm" not in names, names
     assert not [n for n in names if n.endswith(".whl")], names
     assert "python_stdlib.zip" not in names
+
+
+def test_second_visit_uses_the_offline_copys_unpacked_files(page, context, server):
+    # Served by the service worker, the fast start compiles the runtime from
+    # the plain binary the install unpacked into the cache, and reads the
+    # snapshot container unpacked there (checked against raw_sha256): nothing
+    # from the network, nothing gunzipped again, same answer.
+    page.goto(f"{server}/couple.html")
+    wait_live(page, 0)
+    wait_for(page, "async () => { const r = await navigator.serviceWorker.ready;"
+                   " return !!r.active && (await caches.keys()).length > 0; }", 60_000)
+    cached = page.evaluate("""async () => {
+        const cache = await caches.open((await caches.keys())[0]);
+        return (await cache.keys()).map((r) => new URL(r.url).pathname.split('/').pop());
+    }""")
+    assert "pyodide.asm.wasm" in cached and "noblegap-snapshot.container" in cached, cached
+    context.set_offline(True)
+    _statuses(page)
+    page.add_init_script("""
+        (() => {
+          const Native = window.Worker;
+          window.Worker = class extends Native {
+            constructor(...args) {
+              super(...args);
+              window.__workerName = (args[1] || {}).name;
+              this.addEventListener('message', (e) => {
+                if (e.data && e.data.type === 'ready') window.__timings = e.data.timings;
+              });
+            }
+          };
+        })();
+    """)
+    page.goto(f"{server}/couple.html?metal_a=Mg&metal_b=Au")
+    wait_live(page, 0)
+    assert page.get_attribute("body", "data-engine-mode") == "snapshot"
+    assert "offline copy" in page.evaluate("() => window.__workerName")
+    assert "snapshot read unpacked" in page.evaluate("() => window.__timings"), page.evaluate("() => window.__timings")
+    assert FALLBACK not in " ".join(page.evaluate("() => window.__statusLog")), page.inner_text("#engine-status")
+    assert page.inner_text("#result .headline") == _headline(api.run("couple", {"metal_a": "Mg", "metal_b": "Au"}))
+    context.set_offline(False)

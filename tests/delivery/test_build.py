@@ -1,5 +1,6 @@
 """The built site is complete, integrity-checked and self-contained (fast start: test_faststart.py)."""
 
+import gzip
 import hashlib
 import html
 import json
@@ -10,7 +11,7 @@ import zipfile
 import pytest
 
 from _site import build_options, ensure_site, serve_site
-from site_build import offline, pages, paths, runtime, wheels
+from site_build import offline, pages, paths, wheels
 from site_build.names import NAMES
 
 
@@ -88,10 +89,20 @@ def test_service_worker_precaches_every_file(site, manifest):
     m = re.search(r"const BUILD = (\{.*?\});\n", text)
     assert m, "sw.js has no BUILD object"
     sw_build = json.loads(m.group(1))
-    assert set(sw_build["files"]) == set(manifest["files"])
+    # a plain file with a gzip twin is served from the twin, never fetched twice
+    unpack = sw_build["unpack"]
+    assert set(sw_build["files"]) == set(manifest["files"]) - set(unpack)
+    for plain, packed in unpack.items():
+        assert packed in sw_build["files"], packed
+        if plain in manifest["files"]:
+            assert gzip.decompress((site / packed).read_bytes()) == (site / plain).read_bytes(), plain
+        else:   # the snapshot, unpacked only into the offline copy
+            info = json.loads((site / "packages" / "noblegap-snapshot.json").read_text())
+            assert plain == "packages/noblegap-snapshot.container" and packed == f"packages/{info['file']}"
+            assert hashlib.sha256(gzip.decompress((site / packed).read_bytes())).hexdigest() == info["raw_sha256"]
     assert sw_build["cache"] == manifest["cache"]
     assert manifest["content_sha256"][:16] in manifest["cache"]
-    for page in ("index.html", "manifest.webmanifest", "pyodide/pyodide.asm.wasm",
+    for page in ("index.html", "manifest.webmanifest", "pyodide/pyodide.mjs",
                  "static/engine/worker.js", "static/engine/engine.mjs", "static/engine/names.json"):
         assert page in sw_build["files"], page
 

@@ -10,7 +10,7 @@ import pytest
 from _site import ensure_site
 from site_build import paths, runtime
 from site_build.common import BuildError
-from site_build.faststart import REVIEWED, build_id
+from site_build.faststart import FASTSTART_NAMES, REVIEWED, build_id
 from site_build.faststart.container import SNAPSHOT_FORMAT, SNAPSHOT_MAGIC, SNAPSHOT_PAGE, snapshot_container
 from site_build.faststart.snapshot import SNAPSHOT_INFO
 from site_build.faststart.stdlib import STDLIB_FILE
@@ -63,7 +63,7 @@ def test_snapshot_sidecar_matches_its_file_pyodide_and_lock(site, snapshot_info,
     # the id engine.mjs computes from the Pyodide it loads and the lock it fetches
     expected_id = hashlib.sha256(
         f"noblegap-snapshot/{SNAPSHOT_FORMAT}|pyodide {pin['version']}|lock {lock_sha}".encode()).hexdigest()
-    assert info["build_id"] == expected_id
+    assert info["build_id"] == expected_id == build_id(pin["version"], lock_sha)
     # shipped compressed, listed in the manifest, so the service worker precaches it
     assert info["size"] < info["raw_size"] / 2
     assert f"{paths.PACKAGES_DIR}/{info['file']}" in manifest["files"]
@@ -268,3 +268,12 @@ def test_site_stdlib_is_a_byte_identical_subset_of_pyodides(site):
             init = "/".join(parts[:i]) + "/__init__.py"
             assert init in kept or init not in set(zipfile.ZipFile(official).namelist()), init
     assert "python_stdlib.zip" not in {p.name for p in (site / "pyodide").iterdir()}
+
+
+def test_names_json_is_the_builds_names_written_once(site):
+    names = read_names(site)
+    assert names["faststart"] == FASTSTART_NAMES
+    assert names["stdlib_file"] == STDLIB_FILE == FASTSTART_NAMES["stdlib_file"]
+    assert {k: v for k, v in names.items() if k not in ("faststart", "stdlib_file")} == NAMES
+    assert (site / paths.PACKAGES_DIR / FASTSTART_NAMES["info_file"]).is_file()
+    assert (site / paths.PACKAGES_DIR / FASTSTART_NAMES["snapshot_file"]).is_file()

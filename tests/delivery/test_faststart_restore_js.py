@@ -14,7 +14,7 @@ from pathlib import Path
 
 import pytest
 
-from _site import ROOT, ensure_site
+from _site import ensure_site
 from site_build.faststart.container import SNAPSHOT_PAGE, snapshot_container
 
 

@@ -1,6 +1,6 @@
 """A site without the fast start: ``--no-faststart``, and a checkout whose two
 ``faststart/`` folders were deleted, both build a complete site that starts
-the normal way (the browser side: tests/browser/test_no_faststart.py)."""
+the normal way (the browser side: tests/browser/test_start_without_faststart.py)."""
 
 import json
 import os

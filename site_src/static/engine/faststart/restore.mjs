@@ -8,34 +8,7 @@
 // write the same way. The format constants come from names.json
 // ("faststart"), written once by the build.
 //
-// Container (after gunzip), format 3 (site_build/faststart/FORMAT.md):
-//
-//   "NGSNAP03", u32 LE header length, header JSON,
-//   the first prefix_size bytes of Pyodide's memory snapshot (its own header),
-//   the base's gap list (header.base.gaps_size bytes, see below),
-//   the package files of header.files, back to back,
-//   zero padding to a multiple of 16,
-//   the stored pages of the WebAssembly heap.
-//
-// Pyodide's snapshot is its header followed by the whole heap. Much of that
-// heap is still what the runtime starts with: the WebAssembly module's data
-// segments (~3 MB), which are in pyodide.asm.wasm and so downloaded anyway.
-// Each heap page is stored XOR the same page of that data segment image
-// ("base": the segments written into zeros, header.base.size bytes), and
-// pages that come out all zero are left out (header.memory_runs lists the
-// [first page, page count] runs kept). The restore takes the base from the
-// runtime it has just instantiated: its memory holds the segments, and in
-// the gaps between them whatever the runtime has written before Python
-// starts (Chromium writes a word there that Node does not). So the gaps
-// are zeroed first (the gap list: LEB128 pairs, bytes from the end of the
-// previous gap to the start of this one, then the gap's length), and the
-// result must have header.base.sha256, else the snapshot is refused.
-//
-// Package files: the container holds those the restored engine may still
-// read (data tables, modules not imported yet, metadata), header.files
-// [path, size]; the compiled modules imported before the save are left out
-// (header.imported lists them): their code is in the memory and Python never
-// reads their files again.
+// The container's layout, and why it is so: site_build/faststart/FORMAT.md.
 
 function hex(buffer) {
   return [...new Uint8Array(buffer)].map((b) => b.toString(16).padStart(2, "0")).join("");
@@ -209,11 +182,15 @@ export function applyBase({ header, pages }, target, base) {
  *
  * In a browser Pyodide fetches the binary at once but compiles it only
  * after it has loaded and run pyodide.asm.mjs (1.25 MB of JavaScript): here
- * the streaming compile starts as soon as the response arrives, in the
- * background, and Pyodide's instantiateStreaming call is answered with that
- * module. Under Node Pyodide reads the file and instantiates the bytes.
+ * the streaming compile starts as soon as Pyodide asks for the binary, in
+ * the background, and Pyodide's instantiateStreaming call is answered with
+ * that module. With packedURL (the build's gzip twin of the binary) the
+ * compile reads the twin through the browser's DecompressionStream, so the
+ * download is the compressed size whatever the host does; should that
+ * fail, the plain binary is compiled instead. Under Node Pyodide reads the
+ * file and instantiates the bytes.
  */
-export function captureRuntimeWasm(wasmURL = null) {
+export function captureRuntimeWasm(wasmURL = null, packedURL = null) {
   const W = globalThis.WebAssembly;
   const original = {
     fetch: globalThis.fetch,
@@ -229,7 +206,7 @@ export function captureRuntimeWasm(wasmURL = null) {
     if (memory === null && "Py_Version" in exports && exports.memory instanceof W.Memory) memory = exports.memory;
     return result;
   };
-  let seen = null; // the response promise handed to Pyodide, and its compile
+  let seen = null; // the response promise handed to Pyodide, and the compile
   const inBrowser = typeof location !== "undefined" && wasmURL !== null && original.instantiateStreaming;
   if (inBrowser) {
     const isRuntime = (input) => {
@@ -239,18 +216,31 @@ export function captureRuntimeWasm(wasmURL = null) {
         return false;
       }
     };
+    const plain = () => W.compileStreaming(original.fetch.call(globalThis, wasmURL, { credentials: "same-origin" }));
+    const compile = async () => {
+      if (packedURL === null || typeof DecompressionStream !== "function") return plain();
+      try {
+        const response = await original.fetch.call(globalThis, packedURL, { credentials: "same-origin" });
+        if (!response.ok || !response.body) throw new Error(`HTTP ${response.status}`);
+        const body = response.body.pipeThrough(new DecompressionStream("gzip"));
+        return await W.compileStreaming(new Response(body, { headers: { "Content-Type": "application/wasm" } }));
+      } catch {
+        return plain();
+      }
+    };
     globalThis.fetch = function (input, init) {
-      const response = original.fetch.call(this, input, init);
-      if (seen !== null || !isRuntime(input)) return response;
-      const compiled = W.compileStreaming(response);
+      if (seen !== null || !isRuntime(input)) return original.fetch.call(this, input, init);
+      const compiled = compile();
       compiled.catch(() => {});
+      // Pyodide hands this to instantiateStreaming below, which answers with
+      // the compiled module: the body is never read.
+      const response = Promise.resolve(new Response(null, { headers: { "Content-Type": "application/wasm" } }));
       seen = { response, compiled, resolved: null };
-      response.then((r) => (seen.resolved = r)).catch(() => {});
+      response.then((r) => (seen.resolved = r));
       return response;
     };
     W.instantiateStreaming = function (source, imports) {
-      // the promise fetch returned, or the response it gave: either way its
-      // body is the compile's
+      // the promise fetch returned, or the response it gave
       if (seen === null || (source !== seen.response && source !== seen.resolved)) {
         return original.instantiateStreaming.call(this, source, imports).then(keep);
       }

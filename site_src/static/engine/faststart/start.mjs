@@ -5,7 +5,8 @@
 // without this folder the site starts the normal way. Everything private
 // lives here and in restore.mjs (FORMAT.md in site_build/faststart/ lists
 // it, with the Pyodide version reviewed): loadPyodide's _loadSnapshot, and
-// the wrapped fetch / WebAssembly.instantiateStreaming (restore.mjs).
+// the wrapped fetch / WebAssembly.instantiateStreaming (restore.mjs), which
+// also compiles the runtime from its pre-compressed twin.
 //
 // The build boots Pyodide under Node, installs the engine's packages, runs
 // noblegap.engine_hooks.warm_up() and saves the WebAssembly memory
@@ -42,9 +43,12 @@ export function installFiles(FS, sitePackages, files) {
   }
 }
 
+// The page is served by the offline copy (the worker's name says so, boot.js).
+const offlineCopy = typeof self !== "undefined" && String(self.name ?? "").includes("offline copy");
+
 /**
- * Unpack a gzip response: {bytes, sha256}, the sha256 being that of the
- * compressed bytes as they came.
+ * Unpack a gzip response: {bytes, sha256, packed: true}, the sha256 being
+ * that of the compressed bytes as they came.
  */
 async function gunzipResponse(response) {
   if (!response.ok) throw new Error(`snapshot file: HTTP ${response.status}`);
@@ -53,7 +57,14 @@ async function gunzipResponse(response) {
   const hashed = sha256Hex(packed);
   const stream = new Blob([packed]).stream().pipeThrough(new DecompressionStream("gzip"));
   const bytes = new Uint8Array(await new Response(stream).arrayBuffer());
-  return { bytes, sha256: await hashed };
+  return { bytes, sha256: await hashed, packed: true };
+}
+
+/** The container as the offline copy holds it, unpacked: {bytes, sha256, packed: false}. */
+async function plainResponse(response) {
+  if (!response.ok) throw new Error(`unpacked snapshot: HTTP ${response.status}`);
+  const bytes = new Uint8Array(await response.arrayBuffer());
+  return { bytes, sha256: await sha256Hex(bytes), packed: false };
 }
 
 // The sidecar, checked against this Pyodide and the lock file it will load;
@@ -90,11 +101,16 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   // The file is requested at the same time as the sidecar (one round trip
   // less); its bytes are used only if the sidecar names this file, and they
   // must still have the sidecar's sha256.
+  // Served by the offline copy: the container it unpacked once (checked
+  // against the sidecar's raw_sha256), else the gzip file.
   const snapshotBase = new URL(snapshotInfoURL, "file:///");
   const guessURL = new URL(FAST.snapshot_file, snapshotBase).href;
   const stop = new AbortController();
   const unpack = (url) => fetchFn(url, { signal: stop.signal }).then(gunzipResponse);
-  const early = unpack(guessURL);
+  const plainURL = new URL(FAST.unpacked_snapshot_file, snapshotBase).href;
+  const early = offlineCopy
+    ? fetchFn(plainURL, { signal: stop.signal }).then(plainResponse).catch(() => unpack(guessURL))
+    : unpack(guessURL);
   early.catch(() => {});
   // No usable sidecar (the normal start follows): stop the download.
   checked.catch(() => stop.abort());
@@ -110,12 +126,12 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
     const { info } = await checked;
     mark("snapshot info checked");
     const url = new URL(info.file, snapshotBase).href;
-    const { bytes, sha256 } = await (url === guessURL ? early : unpack(url));
-    mark("snapshot unpacked");
+    const { bytes, sha256, packed } = await (url === guessURL ? early : unpack(url));
+    mark(packed ? "snapshot unpacked" : "snapshot read unpacked");
     if (bytes.length !== info.raw_size) {
       throw new Error(`snapshot unpacks to ${bytes.length} bytes, its sidecar says ${info.raw_size}`);
     }
-    if (sha256 !== info.sha256) throw new Error("snapshot file does not match its sha256");
+    if (sha256 !== (packed ? info.sha256 : info.raw_sha256)) throw new Error("snapshot file does not match its sha256");
     return parseSnapshot(bytes, info.memory_size, FAST);
   })();
   // loadPyodide awaits the memory only after it has loaded its own script:
@@ -124,9 +140,14 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   for (const promise of [checked, container, memory]) promise.catch(() => {});
   // The runtime's binary, compiled as soon as its response arrives; its
   // memory, once instantiated, holds the base the snapshot is a delta against.
-  const wasmURL =
-    typeof location === "undefined" ? null : new URL("pyodide.asm.wasm", new URL(indexURL, location)).href;
-  const capture = captureRuntimeWasm(wasmURL);
+  // From its gzip twin (names.json "compressed") when the site has one,
+  // except when the page is served by the offline copy (the worker's name
+  // says so, boot.js): that holds the plain file, unpacked once, and the
+  // browser can keep the compiled code of a stored response.
+  const runtimeBase = typeof location === "undefined" ? null : new URL(indexURL, location);
+  const wasmURL = runtimeBase && new URL("pyodide.asm.wasm", runtimeBase).href;
+  const packed = offlineCopy ? null : FAST.compressed?.["pyodide.asm.wasm"];
+  const capture = captureRuntimeWasm(wasmURL, runtimeBase && packed ? new URL(packed, runtimeBase).href : null);
   // What needs no runtime is written as soon as the container is here:
   // Pyodide's header and the pages past the base.
   const paged = Promise.all([container, memory]).then(([snapshot, target]) => {
