@@ -543,8 +543,8 @@ _SERIES = ("#b3261e", "#1f6f43", "#1d4f91", "#b07d12")
 def lines_svg(series, x_label, title):
     """Several rate curves on a log rate axis: ``series`` [(label, [(x, mm_per_yr)])].
     Zero rates sit on the axis floor and are named in the legend."""
-    W, H = 640, 280
-    L, R, T, B = 60, 20, 20, 70
+    W, H = 640, 290
+    L, R, T, B = 60, 20, 30, 70
     svg = Svg(W, H, title)
     xs = [x for _, pts in series for x, _ in pts]
     pos = [y for _, pts in series for _, y in pts if y > 0]
@@ -562,7 +562,7 @@ def lines_svg(series, x_label, title):
         svg.line(x(t), H - B, x(t), H - B + 4, stroke="#555")
         svg.text(x(t), H - B + 16, units.fmt(t, "", 3), size=10, anchor="middle")
     svg.text((L + W - R) / 2, H - B + 32, x_label, size=11, anchor="middle", fill="#444")
-    svg.text(14, T + 4, "mm/yr (log)", size=11, fill="#444")
+    svg.text(8, 14, "mm/yr (log scale)", size=11, fill="#444")
     for k, (label, pts) in enumerate(series):
         colour = _SERIES[k % len(_SERIES)]
         line = [(x(px), y(max(math.log10(py), y_lo) if py > 0 else y_lo)) for px, py in pts]
