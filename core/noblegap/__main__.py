@@ -10,7 +10,7 @@ import argparse
 import json
 import sys
 
-from . import api
+from . import api, schedule
 
 
 def _text(result):
@@ -45,7 +45,10 @@ def main(argv=None):
     p_run.add_argument("--json", action="store_true", help="print the result as JSON")
     p_desc = sub.add_parser("describe", help="print a calculator's schema")
     p_desc.add_argument("calc", nargs="?")
+    schedule.add_arguments(sub.add_parser("schedule", help="run a CSV schedule of joints"))
     args = parser.parse_args(argv)
+    if args.command == "schedule":
+        return schedule.command(args)
     if args.command == "describe":
         out = api.describe(args.calc)
         print(json.dumps(out, indent=2, ensure_ascii=False))
