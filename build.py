@@ -802,6 +802,12 @@ def render_pages(site: Path, site_globals: dict, api) -> list[str]:
         calculators=desc["calculators"], page="index.html", page_name="index")
     (site / "index.html").write_text(html)
     written.append("index.html")
+    # Job records (issue 12): the saved jobs and the joint schedule pages.
+    for name in JOB_PAGES:
+        html = _template(env, name).render(calculators=desc["calculators"], page=name,
+                                           page_name=name.removesuffix(".html"))
+        (site / name).write_text(html)
+        written.append(name)
     for extra in desc.get("pages", []):
         html = _template(env, extra["template"]).render(
             **{"page": extra["out"], "page_name": extra["out"].removesuffix(".html"),
@@ -809,6 +815,16 @@ def render_pages(site: Path, site_globals: dict, api) -> list[str]:
         (site / extra["out"]).write_text(html)
         written.append(extra["out"])
     return written
+
+
+JOB_PAGES = ("jobs.html", "schedule.html")
+
+
+def copy_examples(site: Path) -> None:
+    """data/examples/*.csv (templates a user downloads) -> site/examples/."""
+    for p in sorted((DATA / "examples").glob("*.csv")):
+        (site / "examples").mkdir(exist_ok=True)
+        shutil.copyfile(p, site / "examples" / p.name)
 
 
 def calc_page(calc: dict) -> str:
@@ -921,6 +937,7 @@ def build(site: Path = SITE, offline: bool = False, compile_pyc: bool = True, sn
         write_lock(pyodide_dir, wheels, tmp / PACKAGES_DIR)
         write_stdlib(pyodide_dir, tmp, pin)
         copy_static(tmp)
+        copy_examples(tmp)
         if snapshot:
             make_snapshot(tmp, pin, api)
         render_pages(tmp, site_globals, api)

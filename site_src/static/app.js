@@ -296,6 +296,7 @@ function render(reply) {
     resultBox.dataset.state = "error";
   }
   resultBox.dataset.resultSeq = String(seq);
+  document.dispatchEvent(new CustomEvent("noblegap:result", { detail: reply })); // static/checkbar.js
   if (lastInputAt) {
     resultBox.dataset.latencyMs = (performance.now() - lastInputAt).toFixed(2);
   }
