@@ -182,7 +182,21 @@ export function mount({ schema, readInputs, linkExtras }) {
   form.addEventListener("input", syncURL);
   form.addEventListener("change", syncURL);
   document.getElementById("reset")?.addEventListener("click", () => setTimeout(syncURL, 0));
-  document.addEventListener("noblegap:result", () => {
+  // Offer the calculator's own suggestion (its "change_fastener" mitigation)
+  // as the other alloy, until the user picks one.
+  let alloyTouched = Boolean(fromLink && fromLink.includes("alloy:"));
+  alloySelect?.addEventListener("change", () => {
+    alloyTouched = true;
+  });
+  document.addEventListener("noblegap:result", (ev) => {
+    const res = ev.detail && ev.detail.ok && ev.detail.result && ev.detail.result.ok ? ev.detail.result.result : null;
+    if (alloySelect && !alloyTouched && res) {
+      const suggested = (res.mitigations || []).find((m) => m.id === "change_fastener" && m.fastener);
+      const current = ev.detail.result.inputs.fastener;
+      const pick = suggested ? suggested.fastener : [...alloySelect.options].map((o) => o.value).find((v) => v !== current);
+      if (pick && [...alloySelect.options].some((o) => o.value === pick)) alloySelect.value = pick;
+      syncURL();
+    }
     if (chosen().length) refresh();
   });
   if (chosen().length) refresh();

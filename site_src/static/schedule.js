@@ -85,6 +85,7 @@ function errorText(r) {
     .join(" · ");
 }
 
+const LABELS = ["Line", "ID", "Check", "Verdict", "Rate, mm/yr", "Years", ""];
 function rowNode(r) {
   const tr = el("tr", r.status === "error" ? "row-error" : "");
   tr.dataset.line = String(r.line);
@@ -99,6 +100,9 @@ function rowNode(r) {
   const last = el("td", r.status === "error" ? "row-errors" : "row-headline", r.status === "error" ? errorText(r) : r.headline);
   if (r.status === "error") last.setAttribute("role", "note");
   tr.appendChild(last);
+  [...tr.children].forEach((td, i) => {
+    if (LABELS[i]) td.dataset.label = LABELS[i];
+  });
   return tr;
 }
 

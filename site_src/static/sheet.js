@@ -66,14 +66,15 @@ function sourcesTable(rows) {
   const table = el("table", "sheet-values");
   const head = el("thead");
   const hr = el("tr");
-  for (const c of ["Value", "", "Source (citation and locator)", "Confidence"]) hr.appendChild(el("th", null, c));
+  for (const c of ["Value", "Source (citation and locator)", "Confidence"]) hr.appendChild(el("th", null, c));
   head.appendChild(hr);
   table.appendChild(head);
   const body = el("tbody");
   for (const r of rows) {
     const tr = el("tr");
-    tr.appendChild(el("td", "sv-label", r.label));
-    tr.appendChild(el("td", "sv-value", r.value));
+    const cell = el("td", "sv-label", `${r.label}: `);
+    cell.appendChild(el("strong", "sv-value", r.value));
+    tr.appendChild(cell);
     tr.appendChild(el("td", "sv-source", r.source ? r.source.text : ""));
     tr.appendChild(el("td", `sv-conf conf-${r.source ? r.source.confidence : ""}`, r.source ? r.source.confidence : ""));
     body.appendChild(tr);
@@ -89,9 +90,12 @@ function sourcesTable(rows) {
 export function checkSheet(o) {
   const s = el("section", "sheet");
   s.dataset.calc = o.schema.name;
+  // The header carries the link and its QR code, so the sheet's body keeps
+  // the page for the inputs, the result and the sources.
   const head = el("header", "sheet-head");
-  head.appendChild(el("h1", "sheet-title", `Check sheet · ${o.schema.title}`));
-  head.appendChild(
+  const headText = el("div", "sheet-head-text");
+  headText.appendChild(el("h1", "sheet-title", `Check sheet · ${o.schema.title}`));
+  headText.appendChild(
     metaTable([
       ["Job", o.job ? o.job.name : "(not saved in a job)"],
       ["Reference", o.job ? o.job.reference : ""],
@@ -99,6 +103,20 @@ export function checkSheet(o) {
       ["Site version", `noblegap ${o.version}`],
     ]),
   );
+  const linkBox = el("div", "sheet-link");
+  linkBox.appendChild(el("p", "sheet-link-label", "Reopen this check (its inputs are in the link; the site works offline once visited):"));
+  linkBox.appendChild(el("p", "sheet-url", o.link));
+  headText.appendChild(linkBox);
+  head.appendChild(headText);
+  if (o.qrSvg) {
+    const img = document.createElement("img");
+    img.className = "sheet-qr";
+    img.alt = "QR code of the link to reopen this check";
+    img.src = `data:image/svg+xml;charset=utf-8,${encodeURIComponent(o.qrSvg)}`;
+    head.appendChild(img);
+  } else {
+    head.appendChild(el("p", "sheet-qr-missing", "QR code not drawn: use the page's “Print check sheet” button to include it."));
+  }
   s.appendChild(head);
   s.appendChild(el("h2", null, "Inputs as entered"));
   s.appendChild(inputsTable(o.schema, o.inputs));
@@ -125,21 +143,6 @@ export function checkSheet(o) {
   for (const w of (o.display && o.display.warnings) || []) ul.appendChild(el("li", "sheet-warning", w));
   for (const c of CAUTIONS) ul.appendChild(el("li", null, c));
   s.appendChild(ul);
-  const foot = el("footer", "sheet-link");
-  const txt = el("div", "sheet-link-text");
-  txt.appendChild(el("p", "sheet-link-label", "Reopen this check (inputs in the link; the site works offline once visited):"));
-  txt.appendChild(el("p", "sheet-url", o.link));
-  foot.appendChild(txt);
-  if (o.qrSvg) {
-    const img = document.createElement("img");
-    img.className = "sheet-qr";
-    img.alt = "QR code of the link above";
-    img.src = `data:image/svg+xml;charset=utf-8,${encodeURIComponent(o.qrSvg)}`;
-    foot.appendChild(img);
-  } else {
-    foot.appendChild(el("p", "sheet-qr-missing", "QR code not drawn: use the page's “Print check sheet” button to include it."));
-  }
-  s.appendChild(foot);
   return s;
 }
 
