@@ -172,3 +172,14 @@ def test_cli_reads_windows_1252_with_a_note(tmp_path):
 def test_doctests():
     import doctest
     assert doctest.testmod(schedule).failed == 0
+
+
+def test_parse_memo_gives_the_same_values_and_never_remembers_an_error():
+    from noblegap.errors import InputErrors
+    calc = api.get("fastener")
+    first = calc.parse({"diameter": "3/8 in"})
+    again = calc.parse({"diameter": "3/8 in"})
+    assert first == again
+    for _ in range(2):
+        with pytest.raises(InputErrors, match="a mass, not a length"):
+            calc.parse({"diameter": "3 kg"})

@@ -156,6 +156,30 @@ class Field:
         }
 
 
+#: Successful parses kept per field (a joint schedule repeats the same alloys,
+#: sizes and environments row after row; live edits revisit values).
+PARSE_MEMO_SIZE = 256
+
+
+def _parse_memo(field, raw):
+    """``field.parse(raw)``, remembered for hashable raw values (parsing is pure)."""
+    try:
+        key = (type(raw), raw)
+        hash(key)
+    except TypeError:
+        return field.parse(raw)
+    memo = field.__dict__.setdefault("_parse_memo", {})
+    if key in memo:
+        return memo[key]
+    value = field.parse(raw)
+    if not isinstance(value, (str, int, float, type(None))):
+        return value  # only immutable results are shared between calls
+    if len(memo) >= PARSE_MEMO_SIZE:
+        memo.clear()
+    memo[key] = value
+    return value
+
+
 @dataclass
 class Calculator:
     """A calculator: its schema, its compute function and its worked example.
@@ -194,7 +218,7 @@ class Calculator:
         parsed, errors = {}, []
         for f in self.fields:
             try:
-                parsed[f.key] = f.parse(raw[f.key])
+                parsed[f.key] = _parse_memo(f, raw[f.key])
             except NoblegapError as exc:
                 errors.append(exc)
         if errors:

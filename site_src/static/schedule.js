@@ -196,7 +196,9 @@ async function run() {
   await Promise.all(Array.from({ length: IN_FLIGHT }, send));
   const secs = (performance.now() - t0) / 1000;
   state.results.sort((a, b) => a.line - b.line);
-  renderAll();
+  // The rows arrived in line order (chunks are answered in the order sent):
+  // redraw only if another sort is chosen, so a long table is not laid out twice.
+  if (sortKey !== "line" || sortDir !== 1) renderAll();
   const sum = await call("schedule", { op: "summary", results: state.results });
   $("sched-summary").textContent = summaryText(sum.result.summary, rows.length, state.cancelled);
   statusEl.textContent = `${doneRows} of ${rows.length} rows in ${secs.toFixed(1)} s (${Math.round(doneRows / Math.max(secs, 1e-3))} rows/s)${state.cancelled ? " — cancelled" : ""}.`;
