@@ -301,11 +301,11 @@ async function persist() {
 (async () => {
   try {
     await store.openStore();
-    const granted = navigator.storage && navigator.storage.persisted ? await navigator.storage.persisted() : null;
-    $("store-status").textContent = granted
-      ? store.persistenceText(true)
-      : "Saved jobs are kept in this browser. Persistent storage is asked for when you first save.";
     await refresh();
+    // With jobs saved, ask (again) for persistent storage and say the answer;
+    // browsers decide without a prompt, or remember the user's choice.
+    if (Number(document.body.dataset.jobs) > 0) await persist();
+    else $("store-status").textContent = "Saved jobs are kept in this browser. Persistent storage is asked for when you first save.";
     document.body.dataset.jobsReady = "1";
   } catch (err) {
     $("store-status").textContent = `Saved jobs are not available in this browser (${err.message}). Private windows may block storage.`;
