@@ -70,3 +70,20 @@ def test_segno_is_not_imported_by_the_engine_start():
 
 def test_doctests():
     assert doctest.testmod(sheet).failed == 0
+
+
+def test_the_site_ships_segno_but_the_engine_start_does_not_load_it():
+    from _site import build_module, ensure_site
+    build = build_module()
+    lock = json.loads((ensure_site() / build.PACKAGES_DIR / build.LOCK_NAME).read_text())
+    assert "segno" in lock["packages"]
+
+    def closure(name, seen):
+        if name not in seen:
+            seen.add(name)
+            for dep in lock["packages"][name]["depends"]:
+                closure(dep, seen)
+        return seen
+
+    # The worker loads "noblegap" and its depends at start; segno only on the first sheet.
+    assert "segno" not in closure("noblegap", set())
