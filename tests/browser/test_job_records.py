@@ -476,3 +476,17 @@ def test_schedule_cancel_stops_a_long_run(page, server):
     done = page.locator("#sched-rows tr").count()
     assert 20 < done < 2000
     assert "Cancelled after" in page.inner_text("#sched-summary")
+
+
+def test_the_browsers_own_print_gives_the_sheet_even_for_an_input_error(page, server, tmp_path):
+    page.goto(f"{server}/holiday.html")
+    seq = wait_live(page)
+    page.fill("#f-thickness", "3 kg")
+    wait_live(page, seq)
+    assert page.get_attribute("#result", "data-state") == "error"
+    pages, text = _pdf_text(page, tmp_path / "direct.pdf", "Letter")  # fires beforeprint
+    assert pages == 1
+    assert "Not computed: That is a mass, not a length." in text
+    assert "thickness=3+kg" in _squash(text)
+    assert "Print check sheet" in text  # says how to get the QR code drawn
+    assert "Inputs as entered" in text and "Anode wall thickness 3 kg" in text
