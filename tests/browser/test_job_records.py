@@ -488,5 +488,5 @@ def test_the_browsers_own_print_gives_the_sheet_even_for_an_input_error(page, se
     assert pages == 1
     assert "Not computed: That is a mass, not a length." in text
     assert "thickness=3+kg" in _squash(text)
-    assert "Print check sheet" in text  # says how to get the QR code drawn
+    assert "Printcheck" in _squash(text)  # says how to get the QR code drawn (wrapped in its box)
     assert "Inputs as entered" in text and "Anode wall thickness 3 kg" in text
