@@ -403,8 +403,9 @@ def test_compare_variants_in_the_link_and_the_saved_job(page, server):
     page.check("input[data-variant='coat_cathode']")
     page.wait_for_selector("#compare-block[data-variants*='coat_cathode'][data-state='ready']")
     assert page.locator("input[data-variant='anode']").is_disabled()  # four columns at most
+    seq = int(page.get_attribute("#result", "data-result-seq"))
     page.fill("#f-count", "20")
-    wait_live(page, int(page.get_attribute("#result", "data-result-seq")))
+    wait_live(page, seq)
     q = parse_qs(urlparse(page.url).query)
     assert q["count"] == ["20"]
     assert q["compare"] == ["alloy:A96061,isolate,coat_cathode"]
