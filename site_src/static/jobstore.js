@@ -79,11 +79,24 @@ export function newId() {
 
 const now = () => new Date().toISOString();
 
+// One transaction: if the body fails, the transaction is aborted, so a
+// change that cannot finish leaves nothing half-written.
 async function tx(stores, mode, body) {
   const db = await openStore();
   const t = db.transaction(stores, mode);
   const finished = done(t);
-  const out = await body(t);
+  let out;
+  try {
+    out = await body(t);
+  } catch (err) {
+    finished.catch(() => {});
+    try {
+      t.abort();
+    } catch {
+      // already finished
+    }
+    throw err;
+  }
   await finished;
   return out;
 }

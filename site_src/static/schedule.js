@@ -67,6 +67,18 @@ function fmt(x, digits = 3) {
 }
 
 const rate = (r) => r.numbers.penetration_mm_per_yr ?? r.numbers.penetration_mm_per_yr_initial;
+// The potential difference with its range (best to worst case) where the check gives one.
+function dvText(n) {
+  if (n.delta_E_V_min != null && n.delta_E_V_max != null)
+    return n.delta_E_V_min === n.delta_E_V_max ? fmt(n.delta_E_V_max) : `${fmt(n.delta_E_V_min)} to ${fmt(n.delta_E_V_max)}`;
+  return fmt(n.delta_E_V);
+}
+function rateText(r) {
+  const n = r.numbers;
+  if (n.penetration_mm_per_yr_low != null && n.penetration_mm_per_yr_high != null)
+    return `${fmt(n.penetration_mm_per_yr_low)} to ${fmt(n.penetration_mm_per_yr_high)}`;
+  return fmt(rate(r));
+}
 const years = (r) => r.numbers.years_to_allowance ?? r.numbers.years_to_perforation;
 const RANK = { avoid: 0, caution: 1, ok: 2, "": 3 };
 const SORTS = {
@@ -74,6 +86,7 @@ const SORTS = {
   id: (r) => r.id.toLowerCase(),
   calc: (r) => r.calc,
   verdict: (r) => (r.status === "error" ? -1 : RANK[r.verdict_class] ?? 3),
+  dv: (r) => r.numbers.delta_E_V_max ?? r.numbers.delta_E_V ?? -Infinity,
   rate: (r) => rate(r) ?? -Infinity,
   years: (r) => years(r) ?? Infinity,
   headline: (r) => (r.status === "error" ? errorText(r) : r.headline).toLowerCase(),
@@ -85,7 +98,7 @@ function errorText(r) {
     .join(" · ");
 }
 
-const LABELS = ["Line", "ID", "Check", "Verdict", "Rate, mm/yr", "Years", ""];
+const LABELS = ["Line", "ID", "Check", "Verdict", "ΔV, V", "Rate, mm/yr", "Years", ""];
 function rowNode(r) {
   const tr = el("tr", r.status === "error" ? "row-error" : "");
   tr.dataset.line = String(r.line);
@@ -95,7 +108,8 @@ function rowNode(r) {
   tr.appendChild(el("td", null, titles[r.calc] || r.calc));
   const v = el("td", `verdict-cell verdict-${r.verdict_class || "none"}`, r.status === "error" ? "Input error" : r.verdict || "—");
   tr.appendChild(v);
-  tr.appendChild(el("td", "num", fmt(rate(r))));
+  tr.appendChild(el("td", "num", dvText(r.numbers)));
+  tr.appendChild(el("td", "num", rateText(r)));
   tr.appendChild(el("td", "num", fmt(years(r))));
   const last = el("td", r.status === "error" ? "row-errors" : "row-headline", r.status === "error" ? errorText(r) : r.headline);
   if (r.status === "error") last.setAttribute("role", "note");
