@@ -69,6 +69,10 @@ def copy_static(site: Path, faststart: bool) -> None:
         dest = site / rel if rel.as_posix() in ROOT_STATIC else site / "static" / rel
         dest.parent.mkdir(parents=True, exist_ok=True)
         shutil.copyfile(p, dest)
+    # data/examples/*.csv: templates a user downloads (the joint schedule's).
+    for p in sorted((DATA / "examples").glob("*.csv")):
+        (site / "examples").mkdir(exist_ok=True)
+        shutil.copyfile(p, site / "examples" / p.name)
 
 
 def write_manifest_and_sw(site: Path, inputs: str, pin: dict, twins: dict[str, str] | None = None) -> dict:

@@ -71,6 +71,12 @@ def render_pages(site: Path, site_globals: dict, api) -> list[str]:
         calculators=desc["calculators"], page="index.html", page_name="index")
     (site / "index.html").write_text(html)
     written.append("index.html")
+    # The job-record pages: saved jobs and the joint schedule.
+    for name in JOB_PAGES:
+        html = _template(env, name).render(calculators=desc["calculators"], page=name,
+                                           page_name=name.removesuffix(".html"))
+        (site / name).write_text(html)
+        written.append(name)
     for extra in desc.get("pages", []):
         html = _template(env, extra["template"]).render(
             **{"page": extra["out"], "page_name": extra["out"].removesuffix(".html"),
@@ -78,6 +84,9 @@ def render_pages(site: Path, site_globals: dict, api) -> list[str]:
         (site / extra["out"]).write_text(html)
         written.append(extra["out"])
     return written
+
+
+JOB_PAGES = ("jobs.html", "schedule.html")
 
 
 def calc_page(calc: dict) -> str:

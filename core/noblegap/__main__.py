@@ -11,7 +11,7 @@ import json
 import os
 import sys
 
-from . import api
+from . import api, schedule
 from .errors import NoblegapError, suggest
 
 
@@ -117,11 +117,14 @@ def _main(argv, as_json):
     p_desc = sub.add_parser("describe", help="print a calculator's schema")
     p_desc.add_argument("calc", nargs="?")
     p_desc.add_argument("--json", action="store_true", help="(the schema is always JSON)")
+    schedule.add_arguments(sub.add_parser("schedule", help="run a CSV schedule of joints"))
     for p in (p_run, p_desc):
         p.error = parser.error
     if not argv:
         raise UsageError("no command given")
     args = parser.parse_args(argv)
+    if args.command == "schedule":
+        return schedule.command(args)
     if args.command == "describe":
         out = api.describe(args.calc)
         _print(json.dumps(out, indent=2, ensure_ascii=False))

@@ -243,6 +243,35 @@ class Field:
         }
 
 
+#: Successful parses kept per field (a joint schedule repeats the same alloys,
+#: sizes and environments row after row; live edits revisit values).
+PARSE_MEMO_SIZE = 256
+
+
+def _read_memo(field, raw):
+    """``field.read_note(raw)``, remembered for hashable raw values (reading is pure).
+
+    Only results made of immutable values are shared between calls.
+    """
+    try:
+        key = (type(raw), raw)
+        hash(key)
+    except TypeError:
+        return field.read_note(raw)
+    memo = field.__dict__.setdefault("_read_memo", {})
+    if key in memo:
+        return memo[key]
+    result = field.read_note(raw)
+    try:
+        hash(result)
+    except TypeError:
+        return result
+    if len(memo) >= PARSE_MEMO_SIZE:
+        memo.clear()
+    memo[key] = result
+    return result
+
+
 @dataclass
 class Calculator:
     """A calculator: its schema, its compute function and its worked example.
@@ -296,7 +325,7 @@ class Calculator:
         parsed, read_as, notes, errors = {}, {}, [], []
         for f in self.fields:
             try:
-                parsed[f.key], echo, note = f.read_note(raw[f.key])
+                parsed[f.key], echo, note = _read_memo(f, raw[f.key])
                 if echo is not None:
                     read_as[f.key] = echo
                 if note:

@@ -69,9 +69,16 @@ def registry():
     return _REGISTRY
 
 
+_CONSTANTS = {}
+
+
 def _constant(name, unit):
-    ureg = registry()
-    return ureg.Quantity(1, name).to(unit).magnitude
+    # Exact SI constants: converted once, then read from the table (the
+    # conversion through pint costs ~0.1 ms, and a rate calls it per case).
+    key = (name, unit)
+    if key not in _CONSTANTS:
+        _CONSTANTS[key] = registry().Quantity(1, name).to(unit).magnitude
+    return _CONSTANTS[key]
 
 
 def faraday():

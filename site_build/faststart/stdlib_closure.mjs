@@ -34,7 +34,9 @@ const py = await loadPyodide({
   stderr: (msg) => console.error(msg),
 });
 const failures = [];
-await py.loadPackage(["noblegap"], { messageCallback: () => {}, errorCallback: (m) => failures.push(m) });
+// Every package of the lock, also those the page loads only when needed
+// (segno, for a printed sheet's QR code), so their imports are followed too.
+await py.loadPackage(Object.keys(lock.packages), { messageCallback: () => {}, errorCallback: (m) => failures.push(m) });
 if (failures.length) {
   console.error(failures.join("\n"));
   process.exit(1);

@@ -19,6 +19,7 @@
 import dis
 import importlib.util
 import json
+import pkgutil
 import sys
 import types
 import zipfile
@@ -90,8 +91,14 @@ def imported_names(code, package):
     return names
 
 
+# Every module of the engine package is a root too, imported at start or not:
+# the worker may call any of them later (noblegap.schedule, noblegap.sheet and
+# the optional packages they import lazily, such as segno for a sheet's QR code).
+_pkg = importlib.import_module("noblegap")
+ENGINE_MODULES = [m.name for m in pkgutil.walk_packages(_pkg.__path__, "noblegap.")]
+
 seen = set()
-todo = START + EXTRA
+todo = START + EXTRA + ENGINE_MODULES
 while todo:
     name = todo.pop()
     if name in seen:

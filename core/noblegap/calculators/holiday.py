@@ -30,7 +30,7 @@ from __future__ import annotations
 
 import math
 
-from .. import units, verdicts
+from .. import units
 from ..errors import InputError, RangeError
 from ..materials import alloys
 from ..methods import coatings, faraday, galvanic

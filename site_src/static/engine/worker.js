@@ -2,6 +2,7 @@
 //   new Worker("static/worker.js", { type: "module" })
 //
 // In:   {id, fn: "run", args: {calc, inputs}}  or  {id, fn: "describe", args: {calc?}}
+//       {id, fn: "schedule" | "sheet" | "compare", args}  args for noblegap.<fn>.handle
 // Out:  {id, ok: true, result}                 result is exactly what
 //                                              noblegap.api.run / describe returned
 //       {id, ok: false, error: {type, message, fields, ...}, response?}
@@ -130,12 +131,26 @@ function workerError(error) {
   };
 }
 
+// The job-record modules (noblegap.schedule, .sheet, .compare): JSON text in
+// and out through their handle(); a sheet's QR library is loaded on first use.
+const JOB_MODULES = ["schedule", "sheet", "compare"];
+const LAZY_PACKAGES = { sheet: ["segno"] };
+function jobCall(engine, fn, args) {
+  const mod = engine.pyodide.pyimport(`noblegap.${fn}`);
+  try {
+    return { ok: true, result: JSON.parse(mod.handle(JSON.stringify(args))) };
+  } finally {
+    mod.destroy();
+  }
+}
+
 function answer(engine, fn, args) {
   if (fn === CALLS.run) {
     const response = engine.run(args.calc, args.inputs);
     if (response.ok) return { ok: true, result: response };
     return { ok: false, error: workerError(response.error ?? {}), response };
   }
+  if (JOB_MODULES.includes(fn)) return jobCall(engine, fn, args);
   if (fn === CALLS.describe) {
     const response = engine.describe(args.calc);
     if (response.ok === false) return { ok: false, error: workerError(response.error ?? {}), response };
@@ -145,7 +160,7 @@ function answer(engine, fn, args) {
     ok: false,
     error: {
       type: "UnknownFunction",
-      message: `The engine has no function ${JSON.stringify(fn)}; use ${Object.values(CALLS).map((c) => JSON.stringify(c)).join(" or ")}.`,
+      message: `The engine has no function ${JSON.stringify(fn)}; use ${[...Object.values(CALLS), ...JOB_MODULES].map((c) => JSON.stringify(c)).join(", ")}.`,
       fields: {},
     },
   };
@@ -167,6 +182,7 @@ self.onmessage = async (event) => {
     return;
   }
   try {
+    if (LAZY_PACKAGES[fn]) await engine.pyodide.loadPackage(LAZY_PACKAGES[fn], { messageCallback: () => {} });
     post({ id, ...answer(engine, fn, args ?? {}) });
   } catch (err) {
     post({
