@@ -11,8 +11,9 @@ A variant is named by a short id that goes into the page's link
 (``compare=alloy:A96061,isolate,coat_cathode``):
 
 * ``current`` — the inputs as entered (always the first column);
-* ``alloy:<id>`` — the same joint with another fastener alloy, a full run of
-  the calculator with that one input changed;
+* ``alloy:<id>`` — the same joint with another fastener alloy (on the joint
+  page: another alloy for the second member), a full run of the calculator
+  with that one input changed (:data:`ALLOY_FIELD`);
 * ``isolate``, ``coat_cathode``, ``anode`` — the calculator's own computed
   mitigation of that id (its ``mitigations`` output). A calculator that does
   not compute one says so in the column instead of guessing.
@@ -40,8 +41,11 @@ MITIGATIONS = {
     "coat_cathode": "Cathode coated",
     "anode": "Sacrificial anode added",
 }
-#: The input a variant ``alloy:<id>`` changes, per calculator.
-ALLOY_FIELD = {"fastener": "fastener", "joint": "first"}
+#: The input a variant ``alloy:<id>`` changes, per calculator, and how its
+#: column is titled: the fastener's alloy; on the joint page, the second
+#: member (the part attached to the first: a clamp, a bracket, a fitting).
+ALLOY_FIELD = {"fastener": "fastener", "joint": "second"}
+ALLOY_TITLE = {"fastener": "Fastener", "joint": "Second member"}
 CALCULATORS = tuple(ALLOY_FIELD)
 
 
@@ -124,12 +128,13 @@ def compare(calc, inputs, variants):
             if not run["ok"]:
                 err = run["error"]
                 msg = (err.get("errors") or [err])[0].get("message", "")
-                columns.append(_unavailable(vid, f"Fastener {alloy}", f"Not computed: {msg}"))
+                columns.append(_unavailable(vid, f"{ALLOY_TITLE[calc]}: {alloy}",
+                                            f"Not computed: {msg}"))
                 continue
             r = run["result"]
             name = next((a.get("name") for a in res.get("alternatives", [])
                          if a.get("fastener") == r.get("cathode") or a.get("fastener") == alloy), None)
-            col = _column(vid, f"Fastener: {name or alloy}", r)
+            col = _column(vid, f"{ALLOY_TITLE[calc]}: {name or alloy}", r)
             columns.append(col)
         else:
             m = mitigations.get(vid)

@@ -71,8 +71,12 @@ export async function compareTable(call, calc, inputs, variants) {
   return box;
 }
 
+// The input an "alloy:<id>" variant changes (noblegap.compare.ALLOY_FIELD).
+const ALLOY_FIELD = { fastener: ["fastener", "Another fastener alloy:"], joint: ["second", "Another alloy for the second member:"] };
+
 export function mount({ schema, readInputs, linkExtras }) {
-  const alloyField = schema.fields.find((f) => f.key === "fastener");
+  const [alloyKey, alloyLabel] = ALLOY_FIELD[schema.name] || [null, ""];
+  const alloyField = schema.fields.find((f) => f.key === alloyKey);
   const result = document.getElementById("result");
   const block = el("section", "compare-block");
   block.id = "compare-block";
@@ -101,7 +105,7 @@ export function mount({ schema, readInputs, linkExtras }) {
     alloySelect.id = "compare-alloy";
     alloySelect.setAttribute("aria-label", "Other fastener alloy");
     for (const ch of alloyField.choices || []) alloySelect.appendChild(new Option(ch.label, ch.id));
-    addBox("alloy", "Another fastener alloy:", alloySelect);
+    addBox("alloy", alloyLabel, alloySelect);
   }
   for (const [id, label] of FIXED) addBox(id, label);
   block.appendChild(choices);
@@ -192,7 +196,7 @@ export function mount({ schema, readInputs, linkExtras }) {
     const res = ev.detail && ev.detail.ok && ev.detail.result && ev.detail.result.ok ? ev.detail.result.result : null;
     if (alloySelect && !alloyTouched && res) {
       const suggested = (res.mitigations || []).find((m) => m.id === "change_fastener" && m.fastener);
-      const current = ev.detail.result.inputs.fastener;
+      const current = ev.detail.result.inputs[alloyKey];
       const pick = suggested ? suggested.fastener : [...alloySelect.options].map((o) => o.value).find((v) => v !== current);
       if (pick && [...alloySelect.options].some((o) => o.value === pick)) alloySelect.value = pick;
       syncURL();
