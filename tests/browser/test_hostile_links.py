@@ -28,7 +28,7 @@ def test_thread_designation_and_product_links_read_as_people_mean(page, server):
     assert page.input_value("#f-diameter") == "M10"
     assert "10 mm nominal diameter" in page.inner_text("#r-diameter")
     assert "0.96 m²" in page.inner_text("#r-plate_area")
-    assert "316L is taken as 316" in page.inner_text("#result")
+    assert "316L is taken as 316" in page.text_content("#result")   # folded under "What this means"
 
 
 def test_decimal_comma_is_echoed(page, server):
