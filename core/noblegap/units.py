@@ -354,6 +354,20 @@ def fmt(value, unit="", sig=3):
     return f"{text} {unit}".strip()
 
 
+def fmt_fraction(value, sig=3):
+    """A fraction (area fraction, breakdown factor) as an inspector reads it:
+    a percentage, or parts per million below 0.1 %.
+
+    >>> fmt_fraction(5.66e-05), fmt_fraction(0.3126), fmt_fraction(0)
+    ('56.6 ppm', '31.3 %', '0 %')
+    """
+    if value is None or (isinstance(value, float) and not math.isfinite(value)):
+        return fmt(value)
+    if value != 0 and abs(value) < 1e-3:
+        return fmt(value * 1e6, "ppm", sig)
+    return fmt(value * 100.0, "%", sig)
+
+
 _SUPERSCRIPT = str.maketrans("0123456789-", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻")
 
 
