@@ -245,8 +245,8 @@ _SYSTEM = contextvars.ContextVar("noblegap_display_system", default=SI)
 
 #: Units a user types that say "I work in US customary units".
 _US_TYPED = re.compile(
-    r"(?:\d|\s|^)(?:in|inch|inches|ft|feet|foot|mil|mils|thou|mpy|degF|°F|F|sq ?ft|ft2|ft²|"
-    r"in2|in²|yd)(?![A-Za-z])|\d\s*[\"″']")
+    r"\d\s*(?:in|inch|inches|ft|feet|foot|mil|mils|thou|mpy|degF|°F|F|sq ?ft|sq ?in|ft2|ft²|"
+    r"in2|in²|yd)(?![A-Za-z0-9])|\d\s*[\"″']")
 
 
 def system():
@@ -268,7 +268,7 @@ def reset_system(token):
 def typed_system(values):
     """``"us"`` if any typed value uses a US customary unit, else ``"si"``.
 
-    >>> typed_system(["3/8 in", "316"]), typed_system(["10 mm", "25 °C"])
+    >>> typed_system(["3/8 in", "316"]), typed_system(["10 mm", "25 °C", "F10006"])
     ('us', 'si')
     """
     for v in values:
