@@ -884,8 +884,8 @@ _SYSTEM = contextvars.ContextVar("noblegap_display_system", default=SI)
 
 #: Units a user types that say "I work in US customary units".
 _US_TYPED = re.compile(
-    r"(?:\d|\s|^)(?:in|inch|inches|ft|feet|foot|mil|mils|thou|mpy|degF|°F|F|sq ?ft|ft2|ft²|"
-    r"in2|in²|yd)(?![A-Za-z])|\d\s*[\"″']")
+    r"\d\s*(?:in|inch|inches|ft|feet|foot|mil|mils|thou|mpy|degF|°F|F|sq ?ft|sq ?in|ft2|ft²|"
+    r"in2|in²|yd)(?![A-Za-z0-9])|\d\s*[\"″']")
 
 
 def system():
@@ -907,7 +907,7 @@ def reset_system(token):
 def typed_system(values):
     """``"us"`` if any typed value uses a US customary unit, else ``"si"``.
 
-    >>> typed_system(["3/8 in", "316"]), typed_system(["10 mm", "25 °C"])
+    >>> typed_system(["3/8 in", "316"]), typed_system(["10 mm", "25 °C", "F10006"])
     ('us', 'si')
     """
     for v in values:
@@ -991,6 +991,20 @@ def fmt(value, unit="", sig=3):
             text = _power_of_ten(value, sig)
     text = text.replace("-", "\u2212")
     return f"{text} {unit}".strip()
+
+
+def fmt_fraction(value, sig=3):
+    """A fraction (area fraction, breakdown factor) as an inspector reads it:
+    a percentage, or parts per million below 0.1 %.
+
+    >>> fmt_fraction(5.66e-05), fmt_fraction(0.3126), fmt_fraction(0)
+    ('56.6 ppm', '31.3 %', '0 %')
+    """
+    if value is None or (isinstance(value, float) and not math.isfinite(value)):
+        return fmt(value)
+    if value != 0 and abs(value) < 1e-3:
+        return fmt(value * 1e6, "ppm", sig)
+    return fmt(value * 100.0, "%", sig)
 
 
 _SUPERSCRIPT = str.maketrans("0123456789-", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻")

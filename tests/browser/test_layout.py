@@ -19,13 +19,22 @@ IDS = sorted({row["id"] for path in (ROOT / "data").glob("*.csv")
               for row in csv.DictReader(path.open(encoding="utf-8"))
               if "_" in (row.get("id") or "")})
 
+# An element may reach past the screen's edge only inside a box that scrolls
+# (or clips) on its own and itself fits: a wide table, a chart, the phone menu.
 OVERFLOW = """() => {
   const w = document.documentElement.clientWidth;
+  const boxed = (e) => {
+    for (let a = e.parentElement; a && a !== document.body; a = a.parentElement) {
+      const o = getComputedStyle(a).overflowX;
+      if (o !== 'visible' && a.getBoundingClientRect().right <= w + 1) return true;
+    }
+    return false;
+  };
   const out = [];
   for (const e of document.querySelectorAll('body *')) {
-    if (e.closest('.table-scroll, .chart-scroll, [hidden], details:not([open]) > :not(summary)')) continue;
+    if (e.closest('[hidden]')) continue;
     const r = e.getBoundingClientRect();
-    if (r.width && r.right > w + 1) out.push(`${e.tagName}.${e.className} ${Math.round(r.right)}`);
+    if (r.width && r.right > w + 1 && !boxed(e)) out.push(`${e.tagName}.${e.className} ${Math.round(r.right)}`);
   }
   return {scroll: document.documentElement.scrollWidth, width: w, out: out.slice(0, 5)};
 }"""
@@ -54,7 +63,7 @@ def test_no_sideways_panning(sized, name):
     _open(sized, name)
     # Open every fold and source note: their contents must fit too.
     sized.evaluate("() => document.querySelectorAll('details').forEach(d => d.open = true)")
-    got = sized.evaluate(OVERFLOW.replace(", details:not([open]) > :not(summary)", ""))
+    got = sized.evaluate(OVERFLOW)
     assert got["scroll"] <= got["width"] and not got["out"], got
 
 

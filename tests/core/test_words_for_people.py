@@ -171,3 +171,9 @@ def test_charts_state_the_width_that_keeps_text_readable():
                       '<text font-size="10">a</text><text font-size="12">b</text></svg>') == 720
     for c in _display("nernst", api.get("nernst").example)["charts"]:
         assert c["min_width"] >= 300
+
+
+def test_fractions_read_as_percent_or_ppm():
+    assert units.fmt_fraction(5.66e-05) == "56.6 ppm"
+    assert units.fmt_fraction(0.3126) == "31.3 %"
+    assert units.fmt_fraction(0.0012) == "0.120 %"
