@@ -32,6 +32,7 @@ import json
 import math
 
 from . import api
+from .materials import alloys
 from .errors import ChoiceError, InputError, NoblegapError
 from .verdicts import RANK, label as verdict_label
 
@@ -133,7 +134,12 @@ def compare(calc, inputs, variants):
                 continue
             r = run["result"]
             name = next((a.get("name") for a in res.get("alternatives", [])
-                         if a.get("fastener") == r.get("cathode") or a.get("fastener") == alloy), None)
+                         if alloy in (a.get("alloy"), a.get("fastener"))), None)
+            if name is None:
+                try:
+                    name = alloys.alloy_label(alloy)
+                except NoblegapError:
+                    name = None
             col = _column(vid, f"{ALLOY_TITLE[calc]}: {name or alloy}", r)
             columns.append(col)
         else:

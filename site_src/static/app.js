@@ -665,7 +665,7 @@ function renderError(err, inputs) {
 
 function render(reply, inputs) {
   clearTimeout(errorTimer);
-  showReadAs((reply.result || {}).inputs_read);
+  showReadAs((reply.result || reply.response || {}).inputs_read);
   document.dispatchEvent(new CustomEvent("noblegap:result", { detail: reply })); // static/checkbar.js
   if (reply.ok && reply.result && reply.result.ok) {
     clearFieldErrors();

@@ -70,15 +70,20 @@ function sourcesTable(rows) {
   head.appendChild(hr);
   table.appendChild(head);
   const body = el("tbody");
-  for (const r of rows) {
+  // A citation printed once in full; a later row with the same one refers to it.
+  const firstRow = new Map();
+  rows.forEach((r, i) => {
     const tr = el("tr");
-    const cell = el("td", "sv-label", `${r.label}: `);
+    const cell = el("td", "sv-label", `${i + 1}. ${r.label}: `);
     cell.appendChild(el("strong", "sv-value", r.value));
     tr.appendChild(cell);
-    tr.appendChild(el("td", "sv-source", r.source ? r.source.text : ""));
+    const text = r.source ? r.source.text : "";
+    const seen = text && firstRow.has(text);
+    if (text && !seen) firstRow.set(text, i + 1);
+    tr.appendChild(el("td", "sv-source", seen ? `as for value ${firstRow.get(text)}` : text));
     tr.appendChild(el("td", `sv-conf conf-${r.source ? r.source.confidence : ""}`, r.source ? r.source.confidence : ""));
     body.appendChild(tr);
-  }
+  });
   table.appendChild(body);
   return table;
 }
@@ -130,6 +135,7 @@ export function checkSheet(o) {
       s.appendChild(p);
     }
     s.appendChild(el("p", "sheet-headline", d.headline));
+    if (d.headline_confidence) s.appendChild(el("p", "sheet-basis", d.headline_confidence.line));
     if (o.compare) s.appendChild(o.compare);
     if ((d.rows || []).length) {
       s.appendChild(el("h2", null, "Key values and their sources"));

@@ -224,10 +224,10 @@ def test_an_injected_script_in_an_imported_name_renders_as_text(page, server):
 
 def test_saved_jobs_survive_a_new_build_of_the_site(browser, site_dir, tmp_path):
     """A new build installs a new service-worker cache and drops the old one; the jobs stay."""
-    from _site import build_module
+    from site_build import serve
     copy = tmp_path / "site"
     shutil.copytree(site_dir, copy)
-    server = build_module().make_server(copy, port=0)
+    server = serve.make_server(copy, port=0)
     import threading
     threading.Thread(target=server.serve_forever, daemon=True).start()
     base = f"http://127.0.0.1:{server.server_address[1]}"
@@ -326,7 +326,7 @@ def _svg_matrix(svg, border=4):
     return [row[border:size - border] for row in grid[border:size - border]]
 
 
-@pytest.mark.parametrize("calc", ["fastener", "holiday"])
+@pytest.mark.parametrize("calc", ["fastener", "holiday", "joint"])
 def test_check_sheet_prints_on_one_page_with_sources_cautions_link_and_qr(page, server, tmp_path, calc):
     page.goto(f"{server}/{calc}.html")
     wait_live(page)

@@ -144,7 +144,7 @@ def coating_state(*, coated_area, holiday_count=None, inspected_area=None,
     b_yr = b if b is not None else 0.0
     if f_insp is not None and a is not None:
         info["notes"].append(
-            f"The measured holiday fraction ({f_insp:.3g}) replaces the specification's "
+            f"The measured holiday fraction ({units.fmt_fraction(f_insp)}) replaces the specification's "
             f"initial breakdown a = {a:g}; its growth b = {b_yr:g} per year is added.")
     elif f_insp is not None:
         info["notes"].append("No breakdown growth was entered: the exposed area stays as "
@@ -439,7 +439,7 @@ def report(n):
              "qualified corrosion engineer; safety-critical, structural and pressure-"
              "retaining parts need licensed review.")
     rep.row("Bare fraction now / mean / at design life",
-            f"{n['fc_initial']:.3g} / {n['fc_mean']:.3g} / {n['fc_final']:.3g}",
+            " / ".join(units.fmt_fraction(n[k]) for k in ("fc_initial", "fc_mean", "fc_final")),
             "computed: f(t) = min(1, f0 + b·t), DNV-RP-B401 §6.4 form", key="fc")
     rep.row("Holiday diameter", units.fmt(n["holiday_diameter_m"] * 1000, "mm", 3),
             "assumed (none entered)" if n["holiday_diameter_assumed"] else "as entered",
