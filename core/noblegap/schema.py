@@ -48,6 +48,8 @@ class Field:
     choices: Any = None
     resolve: Callable | None = None
     widget: str | None = None
+    #: For a long list: ``() -> {choice id: family}``, which groups the touch picker.
+    families: Callable | None = None
     help: str = ""
     source: str = ""
     optional: bool = False
@@ -229,14 +231,18 @@ class Field:
             raise RangeError(f"{self.label} is out of range.{note}", field=self.key,
                              value=raw, allowed=self.allowed_text())
 
+    def _choices_dict(self):
+        fam = self.families() if self.families else {}
+        return [{"id": cid, "label": lab, **({"family": fam[cid]} if cid in fam else {})}
+                for cid, lab in self.choice_list()]
+
     def to_dict(self):
         """JSON-ready description (choices expanded) for pages and ``describe``."""
         return {
             "key": self.key, "label": self.label, "kind": self.kind,
             "default": self.default, "quantity": self.quantity, "unit": self.unit,
             "allowed": self.allowed_text(), "optional": self.optional,
-            "choices": [{"id": cid, "label": lab} for cid, lab in self.choice_list()]
-            if self.kind == CHOICE else None,
+            "choices": self._choices_dict() if self.kind == CHOICE else None,
             "widget": self.widget or ("select" if self.kind == CHOICE and self.resolve is None
                                       else "text"),
             "help": self.help, "source": self.source, "group": self.group,

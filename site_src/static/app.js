@@ -12,6 +12,7 @@
 //            numbers); also after a calculation overran or the engine failed
 //            (data-reason says which).
 import { registerServiceWorker } from "./register-sw.js";
+import "./picker.js";
 import { worker as firstWorker, takeEarly, restartWorker } from "./boot.js";
 import NAMES from "./engine/names.json" with { type: "json" };
 

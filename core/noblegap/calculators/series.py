@@ -92,28 +92,6 @@ def _v(value):
 
 # Our grouping of the table's families, in the order a fabricator reaches for
 # them (structural and fastener metals first, the rarely joined after).
-FAMILY_GROUPS = (
-    ("Stainless steels", ("stainless steel",)),
-    ("Aluminium alloys", ("aluminium",)),
-    ("Steels and cast irons", ("steel", "cast iron")),
-    ("Zinc and zinc coatings, cadmium", ("zinc", "zinc-coated steel", "cadmium")),
-    ("Copper, brasses and bronzes", ("copper", "copper alloy")),
-    ("Copper-nickels", ("copper-nickel",)),
-    ("Nickel and nickel alloys", ("nickel", "nickel alloy")),
-    ("Titanium", ("titanium",)),
-    ("Magnesium", ("magnesium",)),
-    ("Lead, tin and solder", ("lead", "tin", "solder")),
-    ("Noble metals and graphite", ("noble metal", "carbon")),
-)
-
-
-def _family_group(family):
-    for name, members in FAMILY_GROUPS:
-        if family in members:
-            return name
-    return "Other metals"
-
-
 def series_view(rows, environment, reference, centre=None, partner=None, filters=True):
     """The job-centred series view: families, one potential track, the window.
 
@@ -132,7 +110,7 @@ def series_view(rows, environment, reference, centre=None, partner=None, filters
     pct = lambda v: round(100.0 * (v - lo) / (hi - lo), 2)  # noqa: E731
     by_id = {r["id"]: r for r in rows}
     fast = {r["id"]: r["fastener_use"] == "yes" for r in alloys.alloy_table()}
-    fam = {r["id"]: _family_group(r["family"]) for r in alloys.alloy_table()}
+    fam = {r["id"]: alloys.family_group(r["family"]) for r in alloys.alloy_table()}
     window = None
     window_text = ""
     if centre:
@@ -160,7 +138,7 @@ def series_view(rows, environment, reference, centre=None, partner=None, filters
             "range": f"{_v(r['E_active_V'])} to {_v(r['E_noble_V'])}",
         })
     mine = {centre, partner} - {None}
-    order = [name for name, _ in FAMILY_GROUPS] + ["Other metals"]
+    order = [name for name, _ in alloys.FAMILY_GROUPS] + ["Other metals"]
     out = []
     for name in sorted(groups, key=lambda g: (not any(x["key"] in mine for x in groups[g]),
                                               order.index(g))):
@@ -201,7 +179,7 @@ def compute_series(environment, reference, alloy_a=None, alloy_b=None):
         rep.headline(f"{by_id[centre]['label']} among {len(rows)} alloys, and which of "
                      f"them it can be joined to ({env['name'].lower()}).")
     else:
-        rep.headline(f"{len(rows)} alloys in {len(FAMILY_GROUPS)} families, potentials vs "
+        rep.headline(f"{len(rows)} alloys in {len(alloys.FAMILY_GROUPS)} families, potentials vs "
                      f"{_ref_name(reference)}: enter your alloys to see what they can be "
                      "joined to.")
     rep.para("Each bar spans the range of corrosion potentials the alloy shows in "
@@ -213,8 +191,8 @@ def compute_series(environment, reference, alloy_a=None, alloy_b=None):
         rep.note(f"Potentials converted from SCE to {_ref_name(reference)} at 25 °C: "
                  f"E(vs {ref_label}) = E(vs SCE) + E(SCE) − E({ref_label}).")
     rep.view(series_view(rows, environment, reference, centre, partner))
-    fam = {r["id"]: _family_group(r["family"]) for r in alloys.alloy_table()}
-    listed = sorted(rows, key=lambda r: ([g for g, _ in FAMILY_GROUPS].index(fam[r["id"]])
+    fam = {r["id"]: alloys.family_group(r["family"]) for r in alloys.alloy_table()}
+    listed = sorted(rows, key=lambda r: ([g for g, _ in alloys.FAMILY_GROUPS].index(fam[r["id"]])
                                          if fam[r["id"]] != "Other metals" else 99, r["name"],
                                          r["state"]))
     rep.table(f"Potential ranges by family (V vs {ref_label})",
@@ -421,6 +399,8 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
     if ra["id"] != rb["id"]:
         rep.link(f"Fastener check: {lb} fasteners in {la}", "fastener.html",
                  {"fastener": lb, "plate": la, "environment": env_id})
+    rep.link(f"Joint check: {la} joined to {lb} (pipe on a bracket, plate on plate)",
+             "joint.html", {"first": la, "second": lb, "environment": env_id})
     coated = alloys.alloy(c["anode"]) if c["anode"] not in (NONE, OVERLAP) else ra
     other = rb if coated["id"] == ra["id"] else ra
     rep.link(f"Coating holidays: coated {alloys._label(coated)} next to "

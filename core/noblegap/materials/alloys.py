@@ -366,10 +366,39 @@ def potential_range(alloy_id, env_id="seawater_flowing", ref=SERIES_REF):
     return references.to_scale(hi, SERIES_REF, ref), references.to_scale(lo, SERIES_REF, ref)
 
 
+FAMILY_GROUPS = (
+    ("Stainless steels", ("stainless steel",)),
+    ("Aluminium alloys", ("aluminium",)),
+    ("Steels and cast irons", ("steel", "cast iron")),
+    ("Zinc and zinc coatings, cadmium", ("zinc", "zinc-coated steel", "cadmium")),
+    ("Copper, brasses and bronzes", ("copper", "copper alloy")),
+    ("Copper-nickels", ("copper-nickel",)),
+    ("Nickel and nickel alloys", ("nickel", "nickel alloy")),
+    ("Titanium", ("titanium",)),
+    ("Magnesium", ("magnesium",)),
+    ("Lead, tin and solder", ("lead", "tin", "solder")),
+    ("Noble metals and graphite", ("noble metal", "carbon")),
+)
+
+
+def family_group(family):
+    """The family group (a heading of the series view and the alloy picker) of a family."""
+    for name, members in FAMILY_GROUPS:
+        if family in members:
+            return name
+    return "Other metals"
+
+
+def alloy_families():
+    """``{alloy id: family group}`` for every alloy (groups the touch picker)."""
+    return {r["id"]: family_group(r["family"]) for r in alloy_table()}
+
+
 def alloy_field(key, label, default, help="", optional=False):
     """A free-text-with-suggestions alloy input (id, UNS number or generic name)."""
     return Field(key, label, CHOICE, default=default, choices=alloy_choices,
                  resolve=lambda text, field: resolve_alloy_note(text, field), widget="combo",
+                 families=alloy_families,
                  help=help or "Generic name or UNS number, e.g. 316 stainless, S31600, "
                               "alloy 400, zinc.",
                  source="data/alloys.csv", optional=optional)
