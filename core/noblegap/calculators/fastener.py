@@ -194,24 +194,11 @@ def report(n):
                      f"{units.fmt(n['spread_m'] * 1000, 'mm', 2)} of each fastener (the spread "
                      "length); the headline is the rate there, the member average is the "
                      "same current spread over the whole wetted plate.")
-    wet = members.wet_sentence(a)
-    if wet:
-        rep.para(wet)
-    rep.para(members.FRESH_NOTE)
-    if a["from_memory"]:
-        rep.warn(f"{members.FROM_MEMORY_MARK}: some values behind this rate are recalled, "
-                 "not confirmed against a published source (see the sources below). Treat "
-                 "the range, not the single figure, as the result.")
-    for w in alloys.applicability(a["series_env"]):
-        rep.warn(w)
-    for w in members.known_gaps(a):
-        rep.warn(w)
+    members.add_caveats(rep, a)
     rep.note("Geometry: each fastener is taken as a disk of its wetted area in the plate's "
              "plane for the electrolyte's resistance (R = ρ/(4r)); the plate takes part "
              "within the spread length of each fastener face.")
-    rep.note("Screening tool: verify with the applicable standards, local codes and a "
-             "qualified corrosion engineer; safety-critical, structural and pressure-"
-             "retaining joints need licensed review.")
+    rep.note(members.SCREENING_NOTE)
     rep.row("Fastener wetted area (each)", units.fmt(n["A_fastener_each_m2"] * 1e6, "mm²", 3),
             "as entered" if not n["fastener_area_estimated"] else
             f"computed (approximation): {KINDS[n['fastener_kind']]['proportions']}",

@@ -419,15 +419,7 @@ def report(n):
                  f"{s['holidays_on_anode']} holidays on the whole coated area: the holidays "
                  "share the cathode's current, and each holiday's own resistance caps what "
                  "it can draw.")
-    rep.para(members.FRESH_NOTE)
-    if a["from_memory"]:
-        rep.warn(f"{members.FROM_MEMORY_MARK}: some values behind this rate are recalled, "
-                 "not confirmed against a published source. Treat the range, not the single "
-                 "figure, as the result.")
-    for w in alloys.applicability(a["series_env"]):
-        rep.warn(w)
-    for w in members.known_gaps(a):
-        rep.warn(w)
+    members.add_caveats(rep, a, wet=False)
     for note in n["notes"]:
         rep.note(note)
     if n["holiday_diameter_assumed"]:
@@ -435,9 +427,7 @@ def report(n):
                  f"{units.fmt(ASSUMED_DIAMETER_M * 1000, 'mm')} are assumed.")
     rep.note("Each holiday is a disk in an insulating plane (R = ρ/(4r)); the primary current "
              "distribution attacks its rim hardest, the rate shown is its average.")
-    rep.note("Screening tool: verify with the applicable standards, local codes and a "
-             "qualified corrosion engineer; safety-critical, structural and pressure-"
-             "retaining parts need licensed review.")
+    rep.note(members.SCREENING_NOTE)
     rep.row("Bare fraction now / mean / at design life",
             " / ".join(units.fmt_fraction(n[k]) for k in ("fc_initial", "fc_mean", "fc_final")),
             "computed: f(t) = min(1, f0 + b·t), DNV-RP-B401 §6.4 form", key="fc")

@@ -100,25 +100,12 @@ def report(n):
             rep.para(f"The larger member's share of the current concentrates within about "
                      f"{units.fmt(n['spread_m'] * 1000, 'mm', 2)} of the joint (the spread "
                      "length).")
-    wet = members.wet_sentence(a)
-    if wet:
-        rep.para(wet)
-    rep.para(members.FRESH_NOTE)
-    if a["from_memory"]:
-        rep.warn(f"{members.FROM_MEMORY_MARK}: some values behind this rate are recalled, "
-                 "not confirmed against a published source. Treat the range, not the single "
-                 "figure, as the result.")
-    for w in alloys.applicability(a["series_env"]):
-        rep.warn(w)
-    for w in members.known_gaps(a):
-        rep.warn(w)
+    members.add_caveats(rep, a)
     rep.note("Geometry: the smaller member is taken as a disk of its wetted area in an "
              "insulating plane (R = ρ/(4r)), the larger takes part within the spread length "
              "of the joint" + ("; the distance between them enters as the interaction of two "
                                "point sources." if n["distance_m"] is not None else "."))
-    rep.note("Screening tool: verify with the applicable standards, local codes and a "
-             "qualified corrosion engineer; safety-critical, structural and pressure-"
-             "retaining joints need licensed review.")
+    rep.note(members.SCREENING_NOTE)
     rep.row("Distance between the members", "in contact" if n["distance_m"] is None else
             units.fmt(n["distance_m"] * 1000, "mm", 3), "as entered", key="distance")
     members.common_rows(rep, a, n["_conductivity_entered"])

@@ -582,3 +582,25 @@ def spread_points(a):
     span = 4 * lam
     return [(span * k / 40 * 1000, g0 * math.exp(-span * k / 40 / lam) + own)
             for k in range(41)]
+
+
+SCREENING_NOTE = ("Screening tool: verify with the applicable standards, local codes and a "
+                  "qualified corrosion engineer; safety-critical, structural and pressure-"
+                  "retaining joints need licensed review.")
+
+
+def add_caveats(rep, a, wet=True):
+    """The caveats every rate page states in the same words: wet time, fresh
+    metal, values from memory, the series' applicability and the model's gaps."""
+    text = wet_sentence(a) if wet else None
+    if text:
+        rep.para(text)
+    rep.para(FRESH_NOTE)
+    if a["from_memory"]:
+        rep.warn(f"{FROM_MEMORY_MARK}: some values behind this rate are recalled, "
+                 "not confirmed against a published source (see the sources below). Treat "
+                 "the range, not the single figure, as the result.")
+    for w in alloys.applicability(a["series_env"]):
+        rep.warn(w)
+    for w in known_gaps(a):
+        rep.warn(w)
