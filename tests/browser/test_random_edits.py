@@ -33,11 +33,13 @@ def _pool(field):
     }.get(field.get("quantity") or "", ["1", "0.5", "3"])
 
 
-def _text_fields(page):
+def _fields(page):
+    """The page's fields, each with its control's tag and, for a list, its option values."""
     return page.evaluate(
         "() => JSON.parse(document.getElementById('schema').textContent).fields"
-        ".filter((f) => { const c = document.getElementById(`f-${f.key}`);"
-        " return c && c.tagName === 'INPUT'; })")
+        ".map((f) => { const c = document.getElementById(`f-${f.key}`);"
+        " return c ? {...f, tag: c.tagName, options: c.tagName === 'SELECT' ?"
+        " [...c.options].map((o) => o.value) : []} : null; }).filter(Boolean)")
 
 
 def _settled(page):
@@ -65,13 +67,15 @@ def test_random_edits_end_on_the_cores_answer(page, server, name):
     rng = random.Random(f"edits-{name}")
     page.goto(f"{server}/{name}.html")
     wait_live(page)
-    fields = _text_fields(page)
-    assert fields, f"{name} has no typed fields"
+    fields = _fields(page)
+    assert fields, f"{name} has no fields"
     for _ in range(EDITS):
         f = rng.choice(fields)
         sel = f"#f-{f['key']}"
         action = rng.random()
-        if action < 0.45:
+        if f["tag"] == "SELECT":
+            page.select_option(sel, rng.choice(f["options"]))
+        elif action < 0.45:
             page.focus(sel)
             page.keyboard.type(rng.choice(CHARS))
         elif action < 0.7:
