@@ -9,13 +9,16 @@ says when the runtime does not arrive.
 
 from __future__ import annotations
 
+import re
+
 import time
 
 from conftest import wait_for, wait_live
 from noblegap import api
 
 STATE = "() => document.getElementById('result').dataset.state"
-RUNTIME = "**/pyodide/pyodide.asm.wasm"
+# The runtime, plain or as the fast start's pre-compressed twin (pyodide.asm.wasm.gzip).
+RUNTIME = re.compile(r".*/pyodide/pyodide\.asm\.wasm(\.gzip)?$")
 
 
 def _headline(name, inputs):
