@@ -61,24 +61,76 @@ ENUMS = {
 }
 
 
-# Every value column and the prefix of the source columns that stand beside it:
-# a filled value needs ``<prefix>source_id``, a confidence (``<prefix>confidence``,
-# else the row's ``confidence``) and a locator (``<prefix>locator``, else the
-# row's ``locator`` for the main group, else the source's ``locator_hint``).
+# Every value column of every table and the prefix of the source columns that
+# stand beside it: a filled value needs ``<prefix>source_id``, a confidence
+# (``<prefix>confidence``, else the row's ``confidence``) and a locator
+# (``<prefix>locator``, else the row's ``locator`` for the main group, else the
+# source's ``locator_hint``). :func:`value_columns` adds any numeric column a
+# table has but this map does not list, with the row's own source columns, so
+# that no number escapes the count of values by confidence.
 VALUE_SOURCES = {
     "alloys": {"E_noble_V_SCE": "", "E_active_V_SCE": "", "density_g_cm3": "density_",
                "equivalent_weight_g_mol": "ew_", "anodic_index_V": "ai_"},
+    "alloy_designations": {"zinc_layer_mm": ""},
     "environments": {"allowed_delta_V": "allowed_", "i_limit_A_m2": "",
-                     "band_width_mm": "band_"},
-    "half_reactions": {"E0_V_SHE": "", "cross_check_V": "cross_check_",
-                       "dE0dT_mV_per_K": "dEdT_"},
+                     "T_min_degC": "", "T_max_degC": "", "band_width_mm": "band_"},
+    "half_reactions": {"n": "", "E0_V_SHE": "", "cross_check_V": "cross_check_",
+                       "ion_molar_mass_g_mol": "", "dE0dT_mV_per_K": "dEdT_"},
     "reference_electrodes": {"E_V_SHE": "", "dEdT_mV_per_K": "dEdT_",
+                             "dEdT_T_min_degC": "dEdT_", "dEdT_T_max_degC": "dEdT_",
                              "T_max_degC": "T_max_"},
-    "kinetics": {"i_corr_A_m2": "", "b_c_mV_per_decade": "", "b_a_mV_per_decade": "ba_"},
-    "coatings": {"a_fraction": "", "b_per_yr": ""},
-    "holiday_tests": {"k_V": "", "max_thickness_mm": ""},
-    "debye_huckel": {"A_sqrt_kg_per_mol": ""},
+    "kinetics": {"E_corr_V_SCE": "", "i_corr_A_m2": "", "b_c_mV_per_decade": "",
+                 "b_a_mV_per_decade": "ba_"},
+    "coatings": {"depth_min_m": "", "depth_max_m": "", "a_fraction": "", "b_per_yr": ""},
+    "holiday_tests": {"min_thickness_mm": "", "max_thickness_mm": "", "k_V": ""},
+    "debye_huckel": {"T_degC": "", "A_sqrt_kg_per_mol": ""},
+    "electrolytes": {"salinity_low_psu": "", "salinity_psu": "", "salinity_high_psu": "",
+                     "T_low_degC": "", "T_degC": "", "T_high_degC": "",
+                     "kappa_low_S_m": "", "kappa_S_m": "", "kappa_high_S_m": "",
+                     "i_L_low_A_m2": "iL_", "i_L_A_m2": "iL_", "i_L_high_A_m2": "iL_"},
+    "atmospheres": {"tow_low_h_per_yr": "tow_", "tow_h_per_yr": "tow_",
+                    "tow_high_h_per_yr": "tow_",
+                    "film_low_mm": "film_", "film_mm": "film_", "film_high_mm": "film_",
+                    "kappa_low_S_m": "film_", "kappa_S_m": "film_", "kappa_high_S_m": "film_",
+                    "steel_low_um_per_yr": "", "steel_high_um_per_yr": "",
+                    "zinc_low_um_per_yr": "", "zinc_high_um_per_yr": "",
+                    "copper_low_um_per_yr": "", "copper_high_um_per_yr": "",
+                    "aluminium_low_g_m2_per_yr": "", "aluminium_high_g_m2_per_yr": ""},
+    "cell_kinetics": {"i_corr_low_A_m2": "", "i_corr_A_m2": "", "i_corr_high_A_m2": "",
+                      "b_a_mV_per_decade": "ba_", "E_b_V_SCE": "", "b_c_mV_per_decade": "",
+                      "i0_H_A_m2": ""},
 }
+
+
+def value_columns(name, header):
+    """``{column: prefix}`` of every numeric value column of a table.
+
+    The columns listed in :data:`VALUE_SOURCES`, then any other numeric column
+    of the header (read as the row's own ``source_id`` and ``confidence``).
+    """
+    cols = dict(VALUE_SOURCES.get(name, {}))
+    for column in header:
+        if column not in cols and data._is_numeric(column):
+            cols[column] = ""
+    return cols
+
+
+def value_confidences(name):
+    """``[(row id, column, confidence)]`` of every filled value of a table."""
+    rows = data.table(name)
+    if not rows:
+        return []
+    header = [c for c in rows[0] if c != "_row"]
+    out = []
+    for column, prefix in value_columns(name, header).items():
+        conf_col = f"{prefix}confidence" if f"{prefix}confidence" in header else "confidence"
+        for r in rows:
+            if r.get(column) is None:
+                continue
+            key = r.get("id") or r.get("alloy_id") or str(r["_row"])
+            out.append((key, column, r.get(conf_col) or ""))
+    return out
+
 
 # Source kinds that need no locator (a rule of thumb; a value from memory).
 NO_LOCATOR_KINDS = ("practice", "memory")
@@ -86,7 +138,7 @@ NO_LOCATOR_KINDS = ("practice", "memory")
 
 def _check_value_sources(name, header, rows, sources, filename):
     """Each filled value names a known source, a confidence and a locator."""
-    for column, prefix in VALUE_SOURCES.get(name, {}).items():
+    for column, prefix in value_columns(name, header).items():
         if column not in header:
             raise DataError(f"value column {column} listed in validate.VALUE_SOURCES "
                             "is missing", file=filename)
