@@ -63,9 +63,6 @@ def test_environments_table():
                    "freshwater"]
     for row in data.table("environments"):
         assert 0 < row["allowed_delta_V"] <= 0.5
-        assert row["i_limit_A_m2"] > 0
-        if row["kind"] == "atmospheric":
-            assert row["band_width_mm"] > 0
 
 
 @pytest.fixture
@@ -223,5 +220,5 @@ def test_from_memory_values_do_not_grow():
     # Regression pin (issue 15): values recalled but not confirmed may only go down.
     # Counted over every number of every table in data/ (the earlier count of 118
     # covered only some tables and columns): 417 individual values on 2026-12-03
-    # before this round of sourcing.
-    assert len(_from_memory_values()) <= 417
+    # before this round of sourcing; 338 after deleting values no calculation used.
+    assert len(_from_memory_values()) <= 338

@@ -74,8 +74,9 @@ def test_bratsch_table_1_temperature_coefficient(metal, printed):
 
 
 def test_recalled_values_are_labelled_from_memory():
-    # The shared sheet marks the Pt cross-check 1.18 as recalled.
-    assert E0["Pt"]["cross_check_source_id"] == "from_memory"
+    # The Pt cross-check (1.18, recalled) fed no calculation and was dropped, so
+    # no recalled number stands beside a published potential.
+    assert E0["Pt"]["cross_check_V"] is None and not E0["Pt"]["cross_check_source_id"]
     # The hydrogen electrode's thermal coefficient (0.871 mV/K) is recalled, not read.
     assert REF["she"]["dEdT_confidence"] == "from-memory"
 

@@ -45,6 +45,10 @@ SERIES_REF = "sce"
 
 _validated = False
 
+#: Designation systems of a zinc layer on steel: such a designation is reported
+#: as a warning (the layer is used up, then the steel beneath is exposed).
+ZINC_LAYER_SYSTEMS = ("electroplated zinc", "continuous hot-dip sheet", "hot-dip galvanizing")
+
 
 def _ensure_valid():
     global _validated
@@ -269,7 +273,7 @@ def _designation(raw, field):
                 f" ({_label(alloy(row['series_id']))}; mapping {row['confidence']}).")
     if row["note"]:
         sentence += " " + row["note"]
-    return row["series_id"], sentence, row["zinc_layer_mm"] is not None
+    return row["series_id"], sentence, row["system"] in ZINC_LAYER_SYSTEMS
 
 
 def alloy(alloy_id):
