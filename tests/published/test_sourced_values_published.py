@@ -117,3 +117,42 @@ def test_cse_to_sce_at_50C_uses_the_thermal_coefficient_as_thermal():
 def test_debye_huckel_A_follows_the_llnl_table(t_C, printed):
     ratio = nernst.davies_A(t_C + 273.15) / nernst.DAVIES_A_25C
     assert ratio * 0.5114 == pytest.approx(float(printed), abs=_half(printed))
+
+
+LB_IN3_TO_G_CM3 = 27.679905   # 1 lb/in3 in g/cm3 (exact from the pound and the inch)
+
+
+@pytest.mark.parametrize("alloy, source, printed_lb_in3", [
+    # cda_data_bcc: Copper Alloy No. C90500 density .315, C61400 .285 lb/cu in @ 68 F
+    ("tin_bronze", "cda_data_bcc", "0.315"), ("aluminium_bronze", "cda_data_bcc", "0.285"),
+])
+def test_copper_alloy_density_from_the_cda_sheet(alloy, source, printed_lb_in3):
+    row = ALLOYS[alloy]
+    assert row["density_source_id"] == source
+    half = _half(printed_lb_in3) * LB_IN3_TO_G_CM3
+    assert row["density_g_cm3"] == pytest.approx(float(printed_lb_in3) * LB_IN3_TO_G_CM3,
+                                                 abs=half + 0.005)
+
+
+@pytest.mark.parametrize("alloy, source, printed", [
+    # asm_matweb: Type 321 8 g/cc, Type 302 7.86 g/cc; azom_317: 8 g/cm3;
+    # alloysintl_sheets: 347 8.0, 416 7.80 g/cc; atlas_c65500: 8.53 gm/cu cm
+    ("S32100", "asm_matweb", "8"), ("S30200", "asm_matweb", "7.86"),
+    ("S31700", "azom_317", "8"), ("S34700", "alloysintl_sheets", "8.0"),
+    ("S41600", "alloysintl_sheets", "7.80"), ("C65500", "atlas_c65500", "8.53"),
+])
+def test_alloy_density_from_its_data_sheet(alloy, source, printed):
+    row = ALLOYS[alloy]
+    assert row["density_source_id"] == source
+    assert row["density_g_cm3"] == pytest.approx(float(printed), abs=_half(printed))
+
+
+def test_g102_equivalent_weight_from_cda_nominal_compositions():
+    # cda_data_bcc: C90500 nominal Cu 88, Sn 10, Zn 2; atlas_c65500: C65500 nominal
+    # Cu 97, Si 3 (Mn under 1 % left out). EW stored to 0.01 g/mol.
+    w = {"Cu": 63.546, "Sn": 118.710, "Zn": 65.38, "Si": 28.085}
+    g102 = lambda parts: 1.0 / sum(f / 100 * n / w[e] for e, f, n in parts)  # noqa: E731
+    assert ALLOYS["tin_bronze"]["equivalent_weight_g_mol"] == pytest.approx(
+        g102([("Cu", 88, 2), ("Sn", 10, 2), ("Zn", 2, 2)]), abs=0.005)
+    assert ALLOYS["C65500"]["equivalent_weight_g_mol"] == pytest.approx(
+        g102([("Cu", 97, 2), ("Si", 3, 4)]), abs=0.005)
