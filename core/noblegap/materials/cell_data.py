@@ -93,9 +93,20 @@ def triple(row, stem, suffix):
     return (row[f"{stem}_low_{suffix}"], row[f"{stem}_{suffix}"], row[f"{stem}_high_{suffix}"])
 
 
+#: ``match`` of the row whose cathodic constants (``SHARED_COLUMNS``) apply to
+#: every metal whose own row leaves them blank.
+SHARED_MATCH = "shared"
+SHARED_COLUMNS = ("b_c_mV_per_decade", "i0_H_A_m2")
+
+
 @lru_cache(maxsize=256)
 def kinetics_row(alloy_id):
     """The ``data/cell_kinetics.csv`` row for an alloy: by id, then family and state.
+
+    ``match`` lists alloy ids and families (``family:<family>`` or
+    ``family:<family>:<state>``) separated by ``;``. A blank cathodic constant
+    (:data:`SHARED_COLUMNS`) is taken from the ``shared`` row, so that one
+    value applied to every metal is stated, and sourced, once.
 
     Raises
     ------
@@ -104,22 +115,35 @@ def kinetics_row(alloy_id):
     """
     _ensure_valid()
     row = alloys.alloy(alloy_id)
-    rows = data.table("cell_kinetics")
-    for r in rows:
-        if alloy_id in r["match"].split(";"):
-            return r
-    fam_state = f"family:{row['family']}:{row['state']}"
-    for r in rows:
-        if r["match"] == fam_state:
-            return r
-    for r in rows:
-        if r["match"] == f"family:{row['family']}":
-            return r
+    rows = [r for r in data.table("cell_kinetics") if r["match"] != SHARED_MATCH]
+    wanted = (alloy_id, f"family:{row['family']}:{row['state']}", f"family:{row['family']}")
+    for key in wanted:
+        for r in rows:
+            if key in r["match"].split(";"):
+                return _with_shared(r)
     raise MissingDataError(
         f"No polarization data for {row['name']} ({alloy_id}) in the polarization table, "
         "so its rate cannot be computed.", field="alloy", value=alloy_id,
         allowed="an alloy whose family has a row: "
                 + ", ".join(sorted({r['match'] for r in rows})))
+
+
+def shared_kinetics():
+    """The ``shared`` row of ``data/cell_kinetics.csv`` (cathodic constants of every metal)."""
+    _ensure_valid()
+    for r in data.table("cell_kinetics"):
+        if r["match"] == SHARED_MATCH:
+            return r
+    raise MissingDataError("The polarization table has no shared row of cathodic constants.",
+                           field="cell_kinetics", value="", allowed="a row with match "
+                           f"{SHARED_MATCH!r}")
+
+
+def _with_shared(r):
+    if all(r[c] is not None for c in SHARED_COLUMNS):
+        return r
+    shared = shared_kinetics()
+    return dict(r, **{c: shared[c] for c in SHARED_COLUMNS if r[c] is None})
 
 
 def iso_band_um_per_yr(env_id, alloy_id):
