@@ -156,3 +156,37 @@ def test_g102_equivalent_weight_from_cda_nominal_compositions():
         g102([("Cu", 88, 2), ("Sn", 10, 2), ("Zn", 2, 2)]), abs=0.005)
     assert ALLOYS["C65500"]["equivalent_weight_g_mol"] == pytest.approx(
         g102([("Cu", 97, 2), ("Si", 3, 4)]), abs=0.005)
+
+
+ATMOS = data.index("atmospheres")
+
+
+@pytest.mark.parametrize("cat, lo, hi, g_lo, g_hi", [
+    # iso9223_steel_web: unalloyed steel first-year loss in µm (cotes.com: C1 <= 1.3,
+    # C2 1.3-25, C3 25-50, C4 50-80, C5 80-200, CX 200-700) and in g/(m2 a)
+    # (ISO 9223:2012 Table 2 as tabulated in CorWiz: 0-10, 10-200, 200-400, 400-650,
+    # 650-1500, 1500-5500).
+    ("C1", "0", "1.3", 0, 10), ("C2", "1.3", "25", 10, 200), ("C3", "25", "50", 200, 400),
+    ("C4", "50", "80", 400, 650), ("C5", "80", "200", 650, 1500), ("CX", "200", "700", 1500, 5500),
+])
+def test_iso_first_year_steel_band(cat, lo, hi, g_lo, g_hi):
+    row = ATMOS[cat]
+    assert row["steel_source_id"] == "iso9223_steel_web"
+    assert row["steel_low_um_per_yr"] == pytest.approx(float(lo), abs=_half(lo))
+    assert row["steel_high_um_per_yr"] == pytest.approx(float(hi), abs=_half(hi))
+    # the printed µm and g/(m2 a) limits agree through the density of iron (CRC 7.874)
+    # to within the standard's rounding of the µm column (5 %)
+    assert row["steel_high_um_per_yr"] == pytest.approx(g_hi / 7.874, rel=0.05)
+
+
+@pytest.mark.parametrize("cat, lo, hi", [
+    # iso14713_zinc_web: average zinc corrosion µm/year C1 <0.1, C2 0.1-0.7, C3 0.7-2,
+    # C4 2-4, C5 4-8
+    ("C1", "0", "0.1"), ("C2", "0.1", "0.7"), ("C3", "0.7", "2"), ("C4", "2", "4"),
+    ("C5", "4", "8"),
+])
+def test_iso_zinc_band(cat, lo, hi):
+    row = ATMOS[cat]
+    assert row["zinc_source_id"] == "iso14713_zinc_web"
+    assert row["zinc_low_um_per_yr"] == pytest.approx(float(lo), abs=_half(lo))
+    assert row["zinc_high_um_per_yr"] == pytest.approx(float(hi), abs=_half(hi))

@@ -339,7 +339,7 @@ def common_rows(rep, a, conductivity_entered):
     """Rows with sources for the cell's inputs and outputs."""
     lk = a["likely"]
     env = a["env"]
-    cites = cell_data.cite_env(env["id"])
+    cites = cell_data.cite_env(env["id"], a["anode"])
     ra, rc = a["rule"]["range_anode"], a["rule"]["range_cathode"]
     an, ca = alloys.alloy(a["anode"]), alloys.alloy(a["cathode"])
     rep.row("Anode (corrodes) by the galvanic series", f"{an['name']}: "

@@ -160,10 +160,16 @@ def iso_band_um_per_yr(env_id, alloy_id):
     return env[f"{key}_low_um_per_yr"], env[f"{key}_high_um_per_yr"]
 
 
-def cite_env(env_id):
-    """Citations of a cell environment's rows (conductivity, i_L, wetness, rates)."""
+def cite_env(env_id, alloy_id=None):
+    """Citations of a cell environment's rows (conductivity, i_L, wetness, rates).
+
+    ``iso_rates`` cites the first-year band of ``alloy_id``'s family where the
+    table gives that family its own source (steel, zinc), else the row's.
+    """
     env = environment(env_id)
     if env["kind"] == IMMERSION:
         return {"conductivity": data.cite(env), "i_L": data.cite(env, "iL_")}
+    key = ISO_FAMILIES.get(alloys.alloy(alloy_id)["family"]) if alloy_id else None
+    prefix = f"{key}_" if key and env.get(f"{key}_source_id") else ""
     return {"wetness": data.cite(env, "tow_"), "film": data.cite(env, "film_"),
-            "iso_rates": data.cite(env)}
+            "iso_rates": data.cite(env, prefix)}
