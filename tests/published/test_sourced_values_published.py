@@ -190,3 +190,13 @@ def test_iso_zinc_band(cat, lo, hi):
     assert row["zinc_source_id"] == "iso14713_zinc_web"
     assert row["zinc_low_um_per_yr"] == pytest.approx(float(lo), abs=_half(lo))
     assert row["zinc_high_um_per_yr"] == pytest.approx(float(hi), abs=_half(hi))
+
+
+@pytest.mark.parametrize("env", ["seawater_flowing", "seawater_quiescent"])
+def test_seawater_salinity_band(env):
+    # hyperphysics_seawater: average salinity 35 ppt (35 psu), typical range about
+    # 33 to 37 ppt.
+    row = data.index("electrolytes")[env]
+    assert row["salinity_source_id"] == "hyperphysics_seawater"
+    assert (row["salinity_low_psu"], row["salinity_psu"], row["salinity_high_psu"]) == (
+        pytest.approx(33, abs=0.5), pytest.approx(35, abs=0.5), pytest.approx(37, abs=0.5))
