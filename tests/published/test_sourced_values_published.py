@@ -200,3 +200,29 @@ def test_seawater_salinity_band(env):
     assert row["salinity_source_id"] == "hyperphysics_seawater"
     assert (row["salinity_low_psu"], row["salinity_psu"], row["salinity_high_psu"]) == (
         pytest.approx(33, abs=0.5), pytest.approx(35, abs=0.5), pytest.approx(37, abs=0.5))
+
+
+@pytest.mark.parametrize("alloy, source, parts", [
+    # alloy625_b446_web (ASTM B446): Cr 20.00-23.00, Mo 8.00-10.00, Nb+Ta 3.15-4.15,
+    # Ni balance; astm_b865_web: Cu 27.0-33.0, Al 2.30-3.15, Ni balance;
+    # alloy600_sheet_web: Cr 15.5, Fe 8.00, Ni + Co balance. Mid-points of ranges,
+    # elements under 1 % and those given only as maxima left out.
+    ("N06625", "alloy625_b446_web", [("Cr", 21.5, 3), ("Mo", 9.0, 3), ("Nb", 3.65, 5)]),
+    ("N05500", "astm_b865_web", [("Cu", 30.0, 2), ("Al", 2.725, 3)]),
+    ("N06600", "alloy600_sheet_web", [("Cr", 15.5, 3), ("Fe", 8.0, 2)]),
+])
+def test_g102_equivalent_weight_of_nickel_alloys(alloy, source, parts):
+    w = {"Ni": 58.6934, "Cr": 51.9961, "Mo": 95.95, "Nb": 92.906, "Cu": 63.546,
+         "Al": 26.9815384, "Fe": 55.845}
+    parts = parts + [("Ni", 100 - sum(f for _, f, _ in parts), 2)]
+    ew = 1.0 / sum(f / 100 * n / w[e] for e, f, n in parts)
+    row = ALLOYS[alloy]
+    assert row["ew_source_id"] == source
+    assert row["equivalent_weight_g_mol"] == pytest.approx(ew, abs=0.005)
+
+
+def test_alloy_625_density_from_its_sheet():
+    # alloy625_b446_web: density 0.305 lb/in3
+    row = ALLOYS["N06625"]
+    assert row["density_source_id"] == "alloy625_b446_web"
+    assert row["density_g_cm3"] == pytest.approx(0.305 * LB_IN3_TO_G_CM3, abs=0.0005 * 27.68 + 0.005)
