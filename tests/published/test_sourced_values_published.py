@@ -226,3 +226,24 @@ def test_alloy_625_density_from_its_sheet():
     row = ALLOYS["N06625"]
     assert row["density_source_id"] == "alloy625_b446_web"
     assert row["density_g_cm3"] == pytest.approx(0.305 * LB_IN3_TO_G_CM3, abs=0.0005 * 27.68 + 0.005)
+
+
+@pytest.mark.parametrize("alloy, source, parts", [
+    # kiwiprops_series (Professional BoatBuilder galvanic series): Admiralty Brass
+    # (71% Cu, 28% Zn, 1% Sn), Aluminium Brass (76% Cu, 22% Zn, 2% Al), Manganese
+    # Bronze (58.5% Cu, 39% Zn, 1% Sn, 1% Fe; 0.3% Mn left out); astm_g82 Fig. 1
+    # row names: 50/50 lead-tin solder, 80-20 copper-nickel.
+    ("C44300", "kiwiprops_series", [("Cu", 71, 2), ("Zn", 28, 2), ("Sn", 1, 2)]),
+    ("C68700", "kiwiprops_series", [("Cu", 76, 2), ("Zn", 22, 2), ("Al", 2, 3)]),
+    ("manganese_bronze", "kiwiprops_series",
+     [("Cu", 58.5, 2), ("Zn", 39, 2), ("Sn", 1, 2), ("Fe", 1, 2)]),
+    ("lead_tin_solder", "astm_g82", [("Sn", 50, 2), ("Pb", 50, 2)]),
+    ("C71000", "astm_g82", [("Cu", 80, 2), ("Ni", 20, 2)]),
+])
+def test_g102_equivalent_weight_from_named_compositions(alloy, source, parts):
+    w = {"Cu": 63.546, "Zn": 65.38, "Sn": 118.710, "Al": 26.9815384, "Fe": 55.845,
+         "Pb": 207.2, "Ni": 58.6934}
+    ew = 1.0 / sum(f / 100 * n / w[e] for e, f, n in parts)
+    row = ALLOYS[alloy]
+    assert row["ew_source_id"] == source
+    assert row["equivalent_weight_g_mol"] == pytest.approx(ew, abs=0.005)
