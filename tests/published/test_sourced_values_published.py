@@ -140,6 +140,8 @@ def test_copper_alloy_density_from_the_cda_sheet(alloy, source, printed_lb_in3):
     ("S32100", "asm_matweb", "8"), ("S30200", "asm_matweb", "7.86"),
     ("S31700", "azom_317", "8"), ("S34700", "alloysintl_sheets", "8.0"),
     ("S41600", "alloysintl_sheets", "7.80"), ("C65500", "atlas_c65500", "8.53"),
+    # azom_c44300: density 8.53 g/cm3
+    ("C44300", "azom_c44300", "8.53"),
 ])
 def test_alloy_density_from_its_data_sheet(alloy, source, printed):
     row = ALLOYS[alloy]
