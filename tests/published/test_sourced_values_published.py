@@ -249,3 +249,18 @@ def test_g102_equivalent_weight_from_named_compositions(alloy, source, parts):
     row = ALLOYS[alloy]
     assert row["ew_source_id"] == source
     assert row["equivalent_weight_g_mol"] == pytest.approx(ew, abs=0.005)
+
+
+@pytest.mark.parametrize("column, printed_mm_yr", [
+    # cda_cuni_rates_web: 0.02-0.002 mm/yr normally anticipated for copper-nickel in
+    # seawater; tuthill_cu_seawater: 0.012 mm/y (0.5 mpy) after about one year.
+    ("i_corr_low_A_m2", "0.002"), ("i_corr_A_m2", "0.012"), ("i_corr_high_A_m2", "0.02"),
+])
+def test_copper_nickel_own_rate_from_the_cda_rates(column, printed_mm_yr):
+    # ASTM G102: CR = K i EW / rho, K = 3.27e-3 mm g/(uA cm yr); the 90-10 row's EW
+    # and density. The table stores two significant figures.
+    row = next(r for r in data.table("cell_kinetics") if r["id"] == "copper_nickel")
+    assert row["source_id"] == "cda_cuni_rates_web"
+    cu_ni = ALLOYS["C70600"]
+    cr = 3.27e-3 * (row[column] / 0.01) * cu_ni["equivalent_weight_g_mol"] / cu_ni["density_g_cm3"]
+    assert cr == pytest.approx(float(printed_mm_yr), rel=0.05)
