@@ -29,6 +29,9 @@ EXPECTED_ROWS = {
     "electrolytes": 4,
     "atmospheres": 6,
     "cell_kinetics": 23,
+    "anodes": 3,
+    "anode_shapes": 3,
+    "protection_potentials": 5,
 }
 
 # (column ending, low, high, what) — the physically sensible range of a value.
@@ -45,6 +48,8 @@ RANGES = (
     ("_S_m", 0.0, 100.0, "a conductivity"),
     ("_psu", 0.0, 42.0, "a practical salinity"),
     ("_mm", 0.0, 1.0e5, "a length"),
+    ("_ohm_m", 0.0, 1.0e7, "a resistivity"),
+    ("_Ah_kg", 100.0, 3000.0, "an electrochemical capacity of an anode alloy"),
     ("_m", 0.0, 1.0e5, "a length"),
 )
 
@@ -78,6 +83,11 @@ VALUE_SOURCES = {
     "coatings": {"a_fraction": "", "b_per_yr": ""},
     "holiday_tests": {"k_V": "", "max_thickness_mm": ""},
     "debye_huckel": {"A_sqrt_kg_per_mol": ""},
+    "anodes": {"E_cc_V": "", "capacity_Ah_kg": "cap_", "density_g_cm3": "density_",
+               "b_a_mV_per_decade": "kin_", "i_self_A_m2": "kin_", "rho_min_ohm_m": "use_",
+               "rho_max_ohm_m": "use_"},
+    "anode_shapes": {"utilisation_fraction": ""},
+    "protection_potentials": {"E_protect_V": "", "E_limit_V": "", "shift_V": ""},
 }
 
 # Source kinds that need no locator (a rule of thumb; a value from memory).
