@@ -345,7 +345,8 @@ def anode_inputs(a, typed):
 
 def _anode_unavailable(vid, typed, why, status="not_computed", field=None):
     col = _unavailable(vid, MITIGATIONS["anode"], why)
-    col.update({"status": status, "anode": {"typed": typed, "error_field": field}})
+    col.update({"status": status, "anode": {"typed": typed, "error_field": field,
+                                             "choices": anode_data.anode_choices()}})
     return col
 
 
@@ -484,6 +485,13 @@ def _anode_result(vid, a, spec, info, res, typed):
             "mass_kg": info["mass_kg"], "shape": info["shape"], "shape_name": shape_words,
             "length_m": info["length_m"], "area_m2": info["area_m2"],
             "radius_m": res["radius_m"], "size_text": size,
+            "mass_text": units.fmt(info["mass_kg"], "kg", 3),
+            "length_text": (units.fmt(info["length_m"] * 1000, "mm", 3)
+                            if info["length_m"] is not None else ""),
+            "area_text": (units.fmt(info["area_m2"] * 1e4, "cm²", 3)
+                          if info["area_m2"] is not None else ""),
+            "current_text": units.fmt(lk["current_A"], "A", 3),
+            "choices": anode_data.anode_choices(),
             "utilisation": spec.utilisation, "capacity_Ah_kg": spec.capacity_Ah_kg,
             "E_cc_V_SCE": spec.E_V, "R_ohm": lk["R_anode_ohm"],
             "current_A": lk["current_A"], "current_A_high": cases["high"]["current_A"],
