@@ -336,8 +336,8 @@ def anode_inputs(a, typed):
         shape_id = "flush"
     shape_row = anode_data.shape(shape_id)
     spec = anode_method.AnodeSpec(
-        anode_data.closed_circuit_V_SCE(row["id"]), row["b_a_mV_per_decade"] / 1000.0,
-        row["i_self_A_m2"], row["capacity_Ah_kg"], row["density_g_cm3"],
+        anode_data.closed_circuit_V_SCE(row["id"]), row["kinetics_alloy"],
+        row["capacity_Ah_kg"], row["density_g_cm3"],
         shape_row["utilisation_fraction"], mass, shape, length, area)
     return spec, {"row": row, "shape_row": shape_row, "assumed": assumed, "mass_kg": mass,
                   "shape": shape, "length_m": length, "area_m2": area}

@@ -16,8 +16,7 @@ BRONZE = cell.Electrode(-0.20, 0.02, 0.06, 0.12, 0.1)
 
 
 def zinc(area=0.05, R=0.2, mass=5.0, E=-1.03):
-    return anode.Anode(anode.sacrificial_electrode(E, 0.04, 0.013, 0.12, 0.1), area, R, mass,
-                       780.0, 0.9)
+    return anode.Anode(cell.Electrode(E, 0.013, 0.04, 0.12, 0.1), area, R, mass, 780.0, 0.9)
 
 
 def fastener_case(env="seawater_quiescent", **kw):

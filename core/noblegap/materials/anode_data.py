@@ -2,10 +2,11 @@
 
 * ``data/anodes.csv`` — anode alloys (aluminium-zinc-indium, zinc, magnesium):
   closed-circuit potential with the reference it was printed against,
-  electrochemical capacity [A·h/kg], density, the active-dissolution Tafel
-  slope and self-corrosion current density of the cell model, and the range
-  of water resistivity the alloy suits (outside it zinc and aluminium
-  passivate, magnesium wastes itself).
+  electrochemical capacity [A·h/kg], density, ``kinetics_alloy`` (the alloy
+  whose row of ``data/cell_kinetics.csv`` gives the anode's polarization in
+  the cell model: zinc's for zinc and for the activated aluminium alloy, whose
+  working potential is about zinc's) and the range of water resistivity the
+  alloy suits (outside it zinc and aluminium passivate, magnesium wastes itself).
 * ``data/anode_shapes.csv`` — the utilisation factor of each anode shape (the
   fraction of the net mass consumed before the anode stops delivering).
 * ``data/protection_potentials.csv`` — the potential to which a metal must be
@@ -24,7 +25,8 @@ Potentials come out on the SCE scale (``_V_SCE``), converted with
 
 from __future__ import annotations
 
-from . import alloys, data, references
+from . import alloys, cell_data, data, references
+from ..errors import DataError, NoblegapError
 
 SCE = "sce"
 _validated = False
@@ -35,6 +37,13 @@ def _ensure_valid():
     if not _validated:
         from . import validate
         validate.validate_tables(("anodes", "anode_shapes", "protection_potentials"))
+        for r in data.table("anodes"):
+            try:
+                cell_data.kinetics_row(r["kinetics_alloy"])
+            except NoblegapError:
+                raise DataError(f"kinetics_alloy {r['kinetics_alloy']!r} has no row in "
+                                "cell_kinetics.csv", file="anodes.csv", row=r["_row"],
+                                column="kinetics_alloy") from None
         _validated = True
 
 

@@ -84,8 +84,7 @@ VALUE_SOURCES = {
     "holiday_tests": {"k_V": "", "max_thickness_mm": ""},
     "debye_huckel": {"A_sqrt_kg_per_mol": ""},
     "anodes": {"E_cc_V": "", "capacity_Ah_kg": "cap_", "density_g_cm3": "density_",
-               "b_a_mV_per_decade": "kin_", "i_self_A_m2": "kin_", "rho_min_ohm_m": "use_",
-               "rho_max_ohm_m": "use_"},
+               "rho_min_ohm_m": "use_", "rho_max_ohm_m": "use_"},
     "anode_shapes": {"utilisation_fraction": ""},
     "protection_potentials": {"E_protect_V": "", "E_limit_V": "", "shift_V": ""},
 }

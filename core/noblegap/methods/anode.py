@@ -161,11 +161,17 @@ class Anode:
     utilisation: float
 
 
-def sacrificial_electrode(E_V, b_a_V, i_self_A_m2, b_c_V, i_L_A_m2):
-    """The anode alloy as a :class:`cell.Electrode`: active Tafel dissolution from
-    its closed-circuit potential, its self-corrosion balanced by oxygen reduction
-    (kept below the oxygen limit, as :func:`galvanic.electrode` does)."""
-    return cell.Electrode(E_V, min(i_self_A_m2, 0.5 * i_L_A_m2), b_a_V, b_c_V, i_L_A_m2)
+def sacrificial_electrode(kinetics_alloy, E_V, i_L_A_m2):
+    """The anode alloy as a :class:`cell.Electrode`: the laws and data of the cell
+    model (:func:`galvanic.electrode`, ``data/cell_kinetics.csv``) of the alloy
+    ``kinetics_alloy``, from the anode's closed-circuit potential ``E_V``; its
+    self-corrosion at the likely value, balanced by oxygen reduction.
+
+    Using the closed-circuit (working) potential as the free potential leaves
+    out the few tens of millivolts between an anode's open and closed circuit,
+    which lowers the drive slightly: on the safe side.
+    """
+    return galvanic.electrode(kinetics_alloy, E_V, "likely", i_L_A_m2)
 
 
 # ---------------------------------------------------------------------------
@@ -273,8 +279,7 @@ def solve(anode_el, cathode_el, A_anode_m2, A_cathode_m2, r_anode_ohm, r_cathode
     >>> st = cell.Electrode(-0.70, 0.086, 0.054, 0.12, 0.1, i0_H_A_m2=1e-3)
     >>> cu = cell.Electrode(-0.20, 0.02, 0.06, 0.12, 0.1)
     >>> bare = solve(st, cu, 0.1, 1.0, 0.5, 0.1, 0.0)
-    >>> zn = Anode(sacrificial_electrode(-1.03, 0.04, 0.013, 0.12, 0.1), 0.05, 0.2,
-    ...            5.0, 780.0, 0.9)
+    >>> zn = Anode(cell.Electrode(-1.03, 0.013, 0.04, 0.12, 0.1), 0.05, 0.2, 5.0, 780.0, 0.9)
     >>> with_zn = solve(st, cu, 0.1, 1.0, 0.5, 0.1, 0.0, zn)
     >>> with_zn.i_dissolution_A_m2 < bare.i_dissolution_A_m2
     True
@@ -372,8 +377,7 @@ class AnodeSpec:
     """The anode to add: alloy row values and size (SI floats)."""
 
     E_V: float                 # closed-circuit potential, SCE scale
-    b_a_V: float
-    i_self_A_m2: float
+    kinetics_alloy: str        # alloy id of its polarization data
     capacity_Ah_kg: float
     density_g_cm3: float
     utilisation: float
@@ -417,8 +421,7 @@ def with_anode(assessment, spec, *, R_extra_ohm=0.0):
         a_el, c_el = c["_electrodes"]
         ra, rc, rn = joint_resistances(assessment, case)
         R_s = spec.resistance_ohm(c["rho_ohm_m"]) + R_extra_ohm
-        s_el = sacrificial_electrode(spec.E_V, spec.b_a_V, spec.i_self_A_m2, c_el.b_c_V,
-                                     c["i_L_A_m2"])
+        s_el = sacrificial_electrode(spec.kinetics_alloy, spec.E_V, c["i_L_A_m2"])
         anode = Anode(s_el, area, R_s, spec.mass_kg, spec.capacity_Ah_kg, spec.utilisation)
         sol = solve(a_el, c_el, c["A_anode_eff_m2"], c["A_cathode_eff_m2"], ra, rc, rn, anode)
         rate = faraday.penetration_mm_per_yr(sol.i_dissolution_A_m2,
