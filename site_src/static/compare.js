@@ -45,7 +45,11 @@ export function tableOf(columns) {
     const th = el("th", null, label);
     th.scope = "row";
     tr.appendChild(th);
-    for (const c of columns) tr.appendChild(cell(c));
+    for (const c of columns) {
+      const td = cell(c);
+      if (c.anode && c.available) td.classList.add("compare-col-anode");
+      tr.appendChild(td);
+    }
     body.appendChild(tr);
   };
   row("Verdict", (c) => el("td", `verdict-cell verdict-${c.verdict_class || "none"}`, c.available ? c.verdict || "—" : c.status === "not_applicable" ? "not applicable" : "not computed"));
@@ -92,6 +96,10 @@ export function tableOf(columns) {
       for (const src of c.anode.sources) ul.appendChild(el("li", null, src));
       det.appendChild(ul);
       td.appendChild(det);
+      // printed sheets carry every citation in full (a closed <details> does not print)
+      const printed = el("ul", "compare-sources-print");
+      for (const src of c.anode.sources) printed.appendChild(el("li", null, src));
+      td.appendChild(printed);
     }
     return td;
   });

@@ -7,7 +7,7 @@ from __future__ import annotations
 from urllib.parse import parse_qs, urlparse
 
 from conftest import wait_live
-from test_job_records import _jobs, _open_job, _save_check
+from test_job_records import _jobs, _open_job, _pdf_text, _save_check, _squash
 
 SEAWATER = "environment=seawater_quiescent"
 
@@ -93,12 +93,19 @@ def test_fastener_anode_column_computed_assumed_edited_linked_and_saved(page, se
     assert page.input_value("#compare-anode-mass") == "2,5 kg"
 
 
-def test_joint_anode_column_and_atmosphere_not_applicable(page, server):
+def test_joint_anode_column_printed_and_atmosphere_not_applicable(page, server, tmp_path):
     page.goto(f"{server}/joint.html?{SEAWATER}&compare=anode")
     wait_live(page)
     _ready(page, "anode")
     assert _anode_cell(page, "Verdict") in ("Acceptable", "Needs care", "Avoid")
     assert "(assumed)" in _anode_cell(page, "Anode")
+    # the browser's print gives the sheet with the compared anode and its sources in full
+    _, text = _pdf_text(page, tmp_path / "joint-anode.pdf", "A4")
+    flat = _squash(text)
+    assert "Sacrificialanodeadded" in flat and "(assumed)" in text
+    # the assumed alloy (aluminium-zinc-indium) and the anode shape cite these two
+    assert _squash("Roberge, P. R., Corrosion Engineering: Principles and Practice") in flat
+    assert _squash("DNV-RP-B401, Cathodic Protection Design") in flat
     # the joint's own example is a C5 atmosphere: said so, nothing computed
     page.goto(f"{server}/joint.html?compare=anode")
     wait_live(page)
