@@ -42,7 +42,7 @@ from . import api, units
 from .calculators import fastener as fastener_calc, joint as joint_calc, members
 from .materials import alloys, anode_data, data
 from .methods import anode as anode_method, cell, galvanic
-from .errors import ChoiceError, InputError, NoblegapError
+from .errors import ChoiceError, InputError, NoblegapError, suggest
 from .verdicts import RANK, label as verdict_label
 
 MAX_COLUMNS = 4
@@ -127,6 +127,9 @@ def anode_typed(vid):
             continue
         key, sep, value = part.partition("=")
         key = key.strip()
+        if not sep and key in ANODE_KEYS:
+            raise InputError(f"The anode's {key} has no value.", field=f"anode_{key}",
+                             value=part, allowed=f"{key}=<value>, e.g. mass=5 kg")
         if not sep or key not in ANODE_KEYS:
             raise ChoiceError(f"{key!r} is not an input of the sacrificial anode.",
                               field="compare", value=part,
@@ -273,6 +276,18 @@ def _read_anode(typed, key):
     return value
 
 
+def _anode_alloy(text):
+    """The anode alloy row for an id or a name as typed (``zinc``, ``Magnesium``)."""
+    key = text.strip().lower()
+    for r in anode_data.anode_alloys():
+        if key in (r["id"].lower(), r["name"].lower()):
+            return r
+    names = [r["name"] for r in anode_data.anode_alloys()]
+    raise ChoiceError(f"{text!r} is not an anode alloy here.", field="anode_alloy",
+                      value=text, allowed=", ".join(names),
+                      suggestions=suggest(text, names))
+
+
 def anode_inputs(a, typed):
     """The anode to add: typed values where given, else assumed by the stated rules.
 
@@ -293,10 +308,7 @@ def anode_inputs(a, typed):
     rho = lk["rho_ohm_m"]
     assumed = []
     if "alloy" in typed:
-        row = anode_data.anode_alloy(typed["alloy"].strip().lower().replace(" ", "_")
-                                     if typed["alloy"] not in
-                                     {r["id"] for r in anode_data.anode_alloys()}
-                                     else typed["alloy"], field="anode_alloy")
+        row = _anode_alloy(typed["alloy"])
     else:
         row = anode_data.anode_alloy(anode_data.suited_alloy(rho) or "magnesium")
         assumed.append("alloy")

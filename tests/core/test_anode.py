@@ -7,7 +7,7 @@ import pytest
 from hypothesis import given, settings, strategies as st
 
 from noblegap import api, compare, verdicts
-from noblegap.errors import ChoiceError
+from noblegap.errors import ChoiceError, InputError
 from noblegap.materials import anode_data
 from noblegap.methods import anode, cell
 
@@ -187,6 +187,11 @@ def test_bad_anode_input_stays_in_its_column_and_names_its_field():
     assert big["anode"]["error_field"] == "anode_mass" and "10 t" in big["note"]
     with pytest.raises(ChoiceError, match="colour"):
         compare.anode_typed("anode:colour=red")
+    with pytest.raises(InputError, match="has no value"):
+        compare.anode_typed("anode:mass")
+    alloy = compare.compare("fastener", inputs, ["anode:alloy=unobtainium"])["columns"][1]
+    assert alloy["anode"]["error_field"] == "anode_alloy"
+    assert "Aluminium-zinc-indium, Zinc, Magnesium" in alloy["note"]     # names, not ids
 
 
 def test_one_anode_column_at_most():
