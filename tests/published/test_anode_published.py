@@ -63,3 +63,19 @@ def test_steel_criterion_on_the_calomel_scale_peabody():
     assert crit["row"]["E_protect_V"] == -0.85 and crit["row"]["reference"] == "cse"
     assert crit["E_protect_V_SCE"] == pytest.approx(-0.776, abs=0.0015)
     assert references.to_scale(-0.85, "cse", "sce") == crit["E_protect_V_SCE"]
+
+
+def test_anode_life_worked_example_mil_hdbk_1004_10():
+    # MIL-HDBK-1004/10 (as reproduced at ufgscriteria.tpub.com, 3-570-02, p. 198),
+    # minimum weight of magnesium anodes: W = Y·S·I/E with Y = 15 years, S = 8.8 lb/(A·yr)
+    # (theoretical consumption), E = 0.50 efficiency, I = 0.73 A -> W = 193 lb (printed to
+    # the pound). The same relation read the other way is our life m·ε·u/(I·8760 h) with
+    # ε = 8760 h / 8.8 lb and the efficiency in place of u: 193 lb last 15 years.
+    from noblegap.methods import anode
+
+    lb = 0.45359237
+    capacity_Ah_kg = 8760.0 / (8.8 * lb)
+    life = anode.life_yr(193 * lb, capacity_Ah_kg, 0.50, 0.73)
+    assert life == pytest.approx(15.0, abs=15.0 * 0.5 / 193)    # ± half a pound of anode
+    # the consumption rate is magnesium's theoretical capacity, about 2200 Ah/kg (Roberge)
+    assert capacity_Ah_kg == pytest.approx(2200, rel=0.01)
