@@ -288,13 +288,27 @@ def _anode_alloy(text):
                       suggestions=suggest(text, names))
 
 
+def _assumed_alloy(rho_ohm_m, E_joint_anode_V):
+    """The first alloy of the table that suits the water and is less noble than the
+    joint's anode; else the first less noble one; else the least noble of all."""
+    rows = anode_data.anode_alloys()
+    below = [r for r in rows if anode_data.closed_circuit_V_SCE(r["id"]) < E_joint_anode_V]
+    for r in below:
+        if anode_data.suits(r["id"], rho_ohm_m):
+            return r
+    if below:
+        return below[0]
+    return min(rows, key=lambda r: anode_data.closed_circuit_V_SCE(r["id"]))
+
+
 def anode_inputs(a, typed):
     """The anode to add: typed values where given, else assumed by the stated rules.
 
     Rules (each shown beside the value as assumed):
 
-    * alloy — the first of ``data/anodes.csv`` that suits the water's
-      resistivity (aluminium-zinc-indium, zinc, magnesium);
+    * alloy — the first of ``data/anodes.csv`` (aluminium-zinc-indium, zinc,
+      magnesium) that suits the water's resistivity and is less noble than the
+      joint's anode (:func:`_assumed_alloy`);
     * net mass — enough for the design life at the joint's oxygen-limited
       demand, (A_anode + A_cathode)·i_L, by the anode-life formula, rounded up;
     * shape — a slender stand-off anode;
@@ -310,7 +324,7 @@ def anode_inputs(a, typed):
     if "alloy" in typed:
         row = _anode_alloy(typed["alloy"])
     else:
-        row = anode_data.anode_alloy(anode_data.suited_alloy(rho) or "magnesium")
+        row = _assumed_alloy(rho, lk["E_anode_corr_V_SCE"])
         assumed.append("alloy")
     shape_text = typed.get("shape")
     if shape_text is None:
@@ -435,12 +449,23 @@ def _anode_result(vid, a, spec, info, res, typed):
     reached = (f"{an_name} reaches {units.fmt(lk['E_anode_V_SCE'], 'V', 3)} vs SCE against "
                f"the {need} it needs: {state}.")
     notes = [reached]
+    if lk["solution"].I_sacrificial_A <= 0:
+        least = min(anode_data.anode_alloys(),
+                    key=lambda r: anode_data.closed_circuit_V_SCE(r["id"]))
+        notes.insert(0, f"{row['name']} ({units.fmt(spec.E_V, 'V', 3)} vs SCE) is not less "
+                        f"noble than {an_name} where they meet: it takes current as a second "
+                        "cathode and speeds the attack"
+                        + (f"; {least['name']} is the least noble alloy here."
+                           if least["id"] != row["id"] else
+                           "; no anode alloy here is less noble."))
     if crit["E_limit_V_SCE"] is not None and lk["E_anode_V_SCE"] < crit["E_limit_V_SCE"]:
         notes.append(f"It is driven below {units.fmt(crit['E_limit_V_SCE'], 'V', 3)} vs SCE, "
                      "the most negative potential advised for it (alkaline attack of "
                      "aluminium): a smaller or less active anode suits better.")
     if not suits:
-        best = anode_data.suited_alloy(rho)
+        pick = _assumed_alloy(rho, a["likely"]["E_anode_corr_V_SCE"])
+        best = pick["id"] if pick["id"] != row["id"] and anode_data.suits(pick["id"], rho) \
+            else None
         lo, hi = row["rho_min_ohm_m"], row["rho_max_ohm_m"]
         rng = (f"below {units.fmt(hi, 'Ω·m', 2)}" if lo is None else
                f"from {units.fmt(lo, 'Ω·m', 2)} to {units.fmt(hi, 'Ω·m', 2)}")
