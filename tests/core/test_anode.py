@@ -205,3 +205,15 @@ def test_joint_page_anode_column():
     assert col["available"]
     cur = compare.compare("joint", inputs, [])["columns"][0]
     assert col["rate_mm_per_yr"] < cur["rate_mm_per_yr"]
+
+
+def test_column_with_an_anode_more_noble_than_the_member_says_it_speeds_the_attack():
+    inputs = {**api.get("fastener").example, "environment": "seawater_flowing",
+              "fastener": "titanium", "plate": "magnesium"}
+    cur, auto, zn = compare.compare("fastener", inputs, ["anode"])["columns"][0], *(
+        compare.compare("fastener", inputs, [v])["columns"][1]
+        for v in ("anode", "anode:alloy=zinc"))
+    assert auto["anode"]["alloy"] == "magnesium"          # the only alloy below magnesium's
+    assert zn["anode"]["current_A"] == 0.0
+    assert zn["rate_mm_per_yr"] > cur["rate_mm_per_yr"]
+    assert "second cathode" in zn["note"] and zn["verdict_class"] == verdicts.AVOID
