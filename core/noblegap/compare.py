@@ -107,8 +107,11 @@ MAX_ANODE_TEXT = 60
 
 
 def _is_variant(v):
-    return (v in MITIGATIONS or (v.startswith("alloy:") and len(v) > 6)
-            or v.startswith(ANODE_PREFIX))
+    return v in MITIGATIONS or (v.startswith("alloy:") and len(v) > 6) or _is_anode(v)
+
+
+def _is_anode(vid):
+    return vid == "anode" or vid.startswith(ANODE_PREFIX)
 
 
 def anode_typed(vid):
@@ -155,10 +158,8 @@ def parse_variants(text):
         if not _is_variant(v):
             raise ChoiceError(f"{v!r} is not a variant to compare.", field="compare", value=v,
                               allowed="alloy:<fastener alloy>, " + ", ".join(MITIGATIONS))
-        if v.startswith(ANODE_PREFIX) and any(x.split(":")[0] == "anode" for x in out):
+        if _is_anode(v) and any(_is_anode(x) for x in out):
             continue   # one sacrificial anode column
-        if v == "anode" and any(x.startswith(ANODE_PREFIX) for x in out):
-            continue
         out.append(v)
     if len(out) > MAX_COLUMNS - 1:
         raise InputError(f"Too many variants ({len(out)}).", field="compare",
@@ -208,7 +209,7 @@ def compare(calc, inputs, variants):
                     name = None
             col = _column(vid, f"{ALLOY_TITLE[calc]}: {name or alloy}", r)
             columns.append(col)
-        elif vid == "anode" or vid.startswith(ANODE_PREFIX):
+        elif _is_anode(vid):
             columns.append(anode_column(calc, base, vid))
         else:
             m = mitigations.get(vid)
