@@ -39,12 +39,13 @@ def test_isolation_removes_the_galvanic_part_and_never_speeds_the_anode():
     assert mitig["isolate"]["galvanic_mm_per_yr"] == 0.0
 
 
-def test_a_variant_the_calculator_does_not_compute_says_so():
+def test_the_anode_variant_is_not_applicable_in_an_atmosphere():
+    # the example is a CX atmosphere: a thin film carries an anode's current millimetres
     out = compare.compare("fastener", EXAMPLE, ["anode"])
     col = out["columns"][1]
-    assert col["available"] is False
-    assert "does not compute" in col["note"]
-    assert col["rate_mm_per_yr"] is None
+    assert col["available"] is False and col["status"] == "not_applicable"
+    assert col["note"].startswith("Not applicable in atmosphere:")
+    assert col["rate_mm_per_yr"] is None and col["verdict"] == ""
 
 
 def test_an_unknown_alloy_stays_in_its_column():

@@ -28,7 +28,7 @@ UNIT_SUFFIXES = (
     "_V_SHE", "_V_SCE", "_V", "_mV_per_K", "_g_mol", "_g_cm3", "_A_m2", "_mA_m2",
     "_degC", "_mm", "_m", "_per_yr", "_mV_per_decade", "_fraction", "_kg_m3", "_mol_L",
     "_sqrt_kg_per_mol",
-    "_S_m", "_psu",
+    "_S_m", "_psu", "_ohm_m", "_Ah_kg",
 )
 INTEGER_COLUMNS = ("n", "count", "rank")
 

@@ -29,6 +29,9 @@ EXPECTED_ROWS = {
     "electrolytes": 4,
     "atmospheres": 6,
     "cell_kinetics": 22,
+    "anodes": 3,
+    "anode_shapes": 3,
+    "protection_potentials": 5,
 }
 
 # (column ending, low, high, what) — the physically sensible range of a value.
@@ -45,6 +48,8 @@ RANGES = (
     ("_S_m", 0.0, 100.0, "a conductivity"),
     ("_psu", 0.0, 42.0, "a practical salinity"),
     ("_mm", 0.0, 1.0e5, "a length"),
+    ("_ohm_m", 0.0, 1.0e7, "a resistivity"),
+    ("_Ah_kg", 100.0, 3000.0, "an electrochemical capacity of an anode alloy"),
     ("_m", 0.0, 1.0e5, "a length"),
 )
 
@@ -96,6 +101,10 @@ VALUE_SOURCES = {
     "cell_kinetics": {"i_corr_low_A_m2": "", "i_corr_A_m2": "", "i_corr_high_A_m2": "",
                       "b_a_mV_per_decade": "ba_", "E_b_V_SCE": "", "b_c_mV_per_decade": "",
                       "i0_H_A_m2": ""},
+    "anodes": {"E_cc_V": "", "capacity_Ah_kg": "cap_", "density_g_cm3": "density_",
+               "rho_min_ohm_m": "use_", "rho_max_ohm_m": "use_"},
+    "anode_shapes": {"utilisation_fraction": ""},
+    "protection_potentials": {"E_protect_V": "", "E_limit_V": "", "shift_V": ""},
 }
 
 
