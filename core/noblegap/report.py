@@ -150,10 +150,15 @@ class Report:
         self.d["view"] = view
         return self
 
-    def link(self, label, page, inputs):
-        """A next step: another page of the site, opened with ``inputs`` filled in."""
-        self.d.setdefault("links", []).append(
-            {"label": label, "page": page, "inputs": {k: str(v) for k, v in inputs.items()}})
+    def link(self, label, page, inputs, keep=False):
+        """A next step: another page of the site, opened with ``inputs`` filled in.
+
+        ``keep`` (a link to the same page): the page's other inputs stay as they
+        are and only ``inputs`` change (an alternative alloy, another choice)."""
+        link = {"label": label, "page": page, "inputs": {k: str(v) for k, v in inputs.items()}}
+        if keep:
+            link["keep"] = True
+        self.d.setdefault("links", []).append(link)
         return self
 
     def warn(self, text):

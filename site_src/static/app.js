@@ -306,7 +306,9 @@ function fold(title, nodes, cls) {
   return d;
 }
 
-// Links to the next check, kept only where this site has the page.
+// Links to the next check, kept only where this site has the page. A link
+// that keeps the inputs (an alternative alloy on this page) carries all of
+// the inputs on screen with its own changes.
 function nextSteps(links) {
   const pages = new Set([...document.querySelectorAll(".top nav a")].map((a) => a.getAttribute("href")));
   const usable = (links || []).filter((l) => pages.has(l.page));
@@ -318,9 +320,9 @@ function nextSteps(links) {
   for (const l of usable) {
     const li = el("li");
     const a = el("a", null, l.label);
-    const params = new URLSearchParams(l.inputs || {});
-    const u = readInputs().units;
-    if (u) params.set("units", u);
+    const mine = readInputs();
+    const params = new URLSearchParams(l.keep ? { ...mine, ...l.inputs } : l.inputs || {});
+    if (mine.units) params.set("units", mine.units);
     a.href = `${l.page}?${params.toString()}`;
     li.appendChild(a);
     ul.appendChild(li);

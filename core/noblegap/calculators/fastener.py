@@ -207,6 +207,10 @@ def report(n):
     members.alternatives_table(rep, n["alternatives"], "Better fasteners for this plate here",
                                "fastener")
     members.mitigations_table(rep, n["mitigations"])
+    members.next_steps(rep, a, "fastener.html", n["plate"], n["fastener"],
+                       n["_conductivity_entered"], alternatives=n["alternatives"],
+                       alternative_key="fastener", alternative_word="fastener",
+                       mitigations=n["mitigations"])
     if a["galvanic"]:
         rep.chart("Polarization diagram", members.polarization_svg(a),
                   "Potential against log current: the anode's curve rising, the cathode's "

@@ -460,6 +460,12 @@ def report(n):
                 str(n["ranking"].index(s["side"]) + 1)] for s in n["scenarios"]],
               note="Likely rates; the years integrate the rate as the coating breaks down.",
               key="scenarios")
+    for s in n["ranking"]:
+        if s != side:
+            rep.link(f"{SIDE_LABELS[s]}: its result here", "holiday.html", {"coated_side": s},
+                     keep=True)
+    members.next_steps(rep, a, "holiday.html", n["coated"], n["other"],
+                       n["_conductivity_entered"])
     rep.chart("Likely rate over the design life, the four choices",
               members.lines_svg([(SIDE_LABELS[sc["side"]], sc["timeline"])
                                  for sc in n["scenarios"]], "years in service",

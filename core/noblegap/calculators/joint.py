@@ -112,6 +112,9 @@ def report(n):
     members.alternatives_table(rep, n["alternatives"],
                                "Other alloys for the second member here", "second member")
     members.mitigations_table(rep, n["mitigations"])
+    members.next_steps(rep, a, "joint.html", n["first"], n["second"], n["_conductivity_entered"],
+                       alternatives=n["alternatives"], alternative_key="second",
+                       alternative_word="second member", mitigations=n["mitigations"])
     if a["galvanic"]:
         rep.chart("Polarization diagram", members.polarization_svg(a),
                   "Potential against log current: anode and cathode curves, the ohmic drop "

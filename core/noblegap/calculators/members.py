@@ -176,8 +176,8 @@ MITIGATIONS = {
                   "least as good as the anode's."),
     "coat_anode_only": ("Coating only the anode (a trap)",
                         f"At {COATING_EFFICIENCY:.0%} the holidays left on the anode collect "
-                        "the whole cathode's current. Check holidays on the coating-holiday "
-                        "page (holiday.html)."),
+                        "the whole cathode's current. The next steps open the coating-holiday "
+                        "page with these alloys."),
     "seal": ("Seal out the electrolyte",
              "Jointing compound or sealant in the faying surfaces and holes, caps over "
              "fastener ends: no electrolyte bridging the members, no cell. Effective only "
@@ -440,6 +440,62 @@ def mitigations_table(rep, mits):
               note="Judged like the joint itself: a measure that leaves the anode using its "
                    "allowance within the design life is never rated acceptable. Isolation and "
                    "sealing leave the anode's own corrosion.")
+
+
+# ---------------------------------------------------------------------------
+# Next steps: the other pages, opened with these alloys
+# ---------------------------------------------------------------------------
+
+#: Which holiday-page choice each coating mitigation is.
+_MITIGATION_SIDE = {"coat_anode_only": "anode", "coat_cathode": "cathode", "coat_both": "both"}
+
+
+def _name(alloy_id):
+    """An alloy as a link carries it: the label the pages' lists show."""
+    return alloys._label(alloys.alloy(alloy_id))
+
+
+def shared_inputs(a, conductivity_entered):
+    """What every galvanic page asks alike, as a link carries it: the environment,
+    the design life and an entered conductivity."""
+    out = {"environment": a["env"]["id"], "design_life": f"{a['design_life_yr']:g} year"}
+    if conductivity_entered:
+        out["conductivity"] = f"{a['likely']['kappa_S_m']:.4g} S/m"
+    return out
+
+
+def next_steps(rep, a, here, larger, smaller, conductivity_entered, alternatives=(),
+               alternative_key=None, alternative_word=None, mitigations=()):
+    """Links from a galvanic page (``here``) to the others with the same alloys.
+
+    ``larger``/``smaller`` are the members' alloy ids as the joint and fastener
+    pages take them (plate and fastener); ``alternatives`` each open this page
+    with that alloy in ``alternative_key`` and the other inputs kept; a coating
+    mitigation opens the coating-holiday page on its choice.
+    """
+    shared = shared_inputs(a, conductivity_entered)
+    for alt in alternatives:
+        if not alt["current"]:
+            rep.link(f"Try {alt['name']} as the {alternative_word}", here,
+                     {alternative_key: _name(alt["alloy"])}, keep=True)
+    an, ca = _name(a["anode"]), _name(a["cathode"])
+    for m in mitigations:
+        side = _MITIGATION_SIDE.get(m["id"])
+        if side and a["galvanic"]:
+            coated, other = (ca, an) if side == "cathode" else (an, ca)
+            rep.link(f"{m['title']}: holidays on the coating-holiday page", "holiday.html",
+                     {"coated": coated, "other": other, "coated_side": side, **shared})
+    if here != "fastener.html":
+        rep.link(f"Fastener check: {_name(smaller)} fasteners in {_name(larger)}",
+                 "fastener.html", {"fastener": _name(smaller), "plate": _name(larger), **shared})
+    if here != "joint.html":
+        rep.link(f"Joint check: {_name(larger)} joined to {_name(smaller)}", "joint.html",
+                 {"first": _name(larger), "second": _name(smaller), **shared})
+    series_env = {"environment": a["series_env"]}
+    rep.link("Compare the pair in the galvanic series", "pair.html",
+             {"alloy_a": _name(smaller), "alloy_b": _name(larger), **series_env})
+    rep.link("See both among the alloy families", "series.html",
+             {"alloy_a": _name(smaller), "alloy_b": _name(larger), **series_env})
 
 
 # ---------------------------------------------------------------------------
