@@ -136,13 +136,21 @@ class Report:
         return self
 
     def chart(self, title, svg, alt):
-        """An SVG chart. ``min_width`` [px] is the narrowest the page may draw it
-        so that its smallest text is still 12 px on screen; a narrower screen
-        scrolls the chart inside its own box instead of shrinking it."""
-        svg = re.sub(r">([^<]*)</text>", lambda m: f">{true_minus(chem(m.group(1)))}</text>",
-                     str(svg))
-        self.d["charts"].append({"title": title, "svg": svg, "alt": alt,
-                                 "min_width": _min_width(svg)})
+        """An SVG chart: one drawing, or ``{"wide": svg, "narrow": svg}``
+        (:func:`noblegap.svg.drawings`). ``min_width`` [px] is the narrowest
+        column a drawing may be shown in with its smallest text still 12 px; the
+        page shows the wide drawing where the column allows it, else the narrow
+        one, scaled to the column."""
+        def words(text):
+            return re.sub(r">([^<]*)</text>",
+                          lambda m: f">{true_minus(chem(m.group(1)))}</text>", str(text))
+        both = svg if isinstance(svg, dict) else {"wide": svg}
+        wide = words(both["wide"])
+        chart = {"title": title, "svg": wide, "alt": alt, "min_width": _min_width(wide)}
+        if "narrow" in both:
+            narrow = words(both["narrow"])
+            chart["narrow"] = {"svg": narrow, "min_width": _min_width(narrow)}
+        self.d["charts"].append(chart)
         return self
 
     def view(self, view):

@@ -331,15 +331,21 @@ function nextSteps(links) {
   return nav;
 }
 
+// A chart comes in two drawings (wide, narrow); style.css shows the one that
+// fits the column (a container query), scaled to the column's width.
 function chartImage(c) {
-  const fig = el("figure", "chart");
-  const box = el("div", "chart-scroll");
-  const img = document.createElement("img");
-  img.alt = c.alt || c.title || "chart";
-  img.src = `data:image/svg+xml;charset=utf-8,${encodeURIComponent(c.svg)}`;
-  if (c.min_width) img.dataset.minWidth = c.min_width;
-  box.appendChild(img);
-  fig.appendChild(box);
+  const fig = el("figure", c.narrow ? "chart chart-pair" : "chart");
+  const drawings = [["chart-wide", c]];
+  if (c.narrow) drawings.push(["chart-narrow", c.narrow]);
+  for (const [cls, d] of drawings) {
+    const box = el("div", `chart-scroll ${cls}`);
+    const img = document.createElement("img");
+    img.alt = c.alt || c.title || "chart";
+    img.src = `data:image/svg+xml;charset=utf-8,${encodeURIComponent(d.svg)}`;
+    if (d.min_width) img.dataset.minWidth = d.min_width;
+    box.appendChild(img);
+    fig.appendChild(box);
+  }
   fig.appendChild(el("figcaption", null, c.title));
   return fig;
 }
