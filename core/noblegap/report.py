@@ -158,14 +158,18 @@ class Report:
         self.d["view"] = view
         return self
 
-    def link(self, label, page, inputs, keep=False):
+    def link(self, label, page, inputs, keep=False, group=None):
         """A next step: another page of the site, opened with ``inputs`` filled in.
 
         ``keep`` (a link to the same page): the page's other inputs stay as they
-        are and only ``inputs`` change (an alternative alloy, another choice)."""
+        are and only ``inputs`` change (an alternative alloy, another choice).
+        ``group``: a heading shared by consecutive links (e.g. "Try another
+        fastener")."""
         link = {"label": label, "page": page, "inputs": {k: str(v) for k, v in inputs.items()}}
         if keep:
             link["keep"] = True
+        if group:
+            link["group"] = group
         self.d.setdefault("links", []).append(link)
         return self
 

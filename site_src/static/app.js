@@ -316,8 +316,14 @@ function nextSteps(links) {
   const nav = el("nav", "next-steps");
   nav.setAttribute("aria-label", "Next steps");
   nav.appendChild(el("h3", null, "Next steps"));
-  const ul = el("ul");
+  let ul = null;
+  let group;
   for (const l of usable) {
+    if (!ul || (l.group || null) !== group) {
+      group = l.group || null;
+      if (group) nav.appendChild(el("h4", null, group));
+      ul = nav.appendChild(el("ul"));
+    }
     const li = el("li");
     const a = el("a", null, l.label);
     const mine = readInputs();
@@ -327,7 +333,6 @@ function nextSteps(links) {
     li.appendChild(a);
     ul.appendChild(li);
   }
-  nav.appendChild(ul);
   return nav;
 }
 
@@ -381,9 +386,14 @@ function buildTable(t) {
   const body = el("tbody");
   t.rows.forEach((cells, i) => {
     const tr = el("tr");
-    for (const cell of cells) tr.appendChild(el("td", null, cell));
+    cells.forEach((cell, j) => {
+      const td = el("td", null, cell);
+      td.dataset.col = t.columns[j] ?? "";
+      tr.appendChild(td);
+    });
     if (t.sources) {
       const td = el("td");
+      td.dataset.col = "Source";
       const s = sourceNote(t.sources[i], cells[0]);
       if (s) td.appendChild(s);
       tr.appendChild(td);

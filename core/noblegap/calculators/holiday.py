@@ -463,7 +463,7 @@ def report(n):
     for s in n["ranking"]:
         if s != side:
             rep.link(f"{SIDE_LABELS[s]}: its result here", "holiday.html", {"coated_side": s},
-                     keep=True)
+                     keep=True, group="The other coating choices")
     members.next_steps(rep, a, "holiday.html", n["coated"], n["other"],
                        n["_conductivity_entered"])
     rep.chart("Likely rate over the design life, the four choices",

@@ -477,25 +477,29 @@ def next_steps(rep, a, here, larger, smaller, conductivity_entered, alternatives
     for alt in alternatives:
         if not alt["current"]:
             rep.link(f"Try {alt['name']} as the {alternative_word}", here,
-                     {alternative_key: _name(alt["alloy"])}, keep=True)
+                     {alternative_key: _name(alt["alloy"])}, keep=True,
+                     group=f"Try another {alternative_word}")
     an, ca = _name(a["anode"]), _name(a["cathode"])
     for m in mitigations:
         side = _MITIGATION_SIDE.get(m["id"])
         if side and a["galvanic"]:
             coated, other = (ca, an) if side == "cathode" else (an, ca)
             rep.link(f"{m['title']}: holidays on the coating-holiday page", "holiday.html",
-                     {"coated": coated, "other": other, "coated_side": side, **shared})
+                     {"coated": coated, "other": other, "coated_side": side, **shared},
+                     group="Coatings and their holidays")
+    other = "Other checks of these alloys"
     if here != "fastener.html":
         rep.link(f"Fastener check: {_name(smaller)} fasteners in {_name(larger)}",
-                 "fastener.html", {"fastener": _name(smaller), "plate": _name(larger), **shared})
+                 "fastener.html", {"fastener": _name(smaller), "plate": _name(larger), **shared},
+                 group=other)
     if here != "joint.html":
         rep.link(f"Joint check: {_name(larger)} joined to {_name(smaller)}", "joint.html",
-                 {"first": _name(larger), "second": _name(smaller), **shared})
+                 {"first": _name(larger), "second": _name(smaller), **shared}, group=other)
     series_env = {"environment": a["series_env"]}
     rep.link("Compare the pair in the galvanic series", "pair.html",
-             {"alloy_a": _name(smaller), "alloy_b": _name(larger), **series_env})
+             {"alloy_a": _name(smaller), "alloy_b": _name(larger), **series_env}, group=other)
     rep.link("See both among the alloy families", "series.html",
-             {"alloy_a": _name(smaller), "alloy_b": _name(larger), **series_env})
+             {"alloy_a": _name(smaller), "alloy_b": _name(larger), **series_env}, group=other)
 
 
 # ---------------------------------------------------------------------------
