@@ -85,6 +85,12 @@ class Report:
                   "warnings": [], "notes": []}
         self._basis = None
 
+    def summary(self, text):
+        """The headline's number in a few words, for the page's summary bar
+        (a phone shows two lines of it); without it the bar shows the headline."""
+        self.d["summary"] = text
+        return self
+
     def headline(self, text, basis=None):
         """Set the headline. ``basis``: ``(label, source)`` pairs behind it; by
         default every row's source and every table row's source count."""

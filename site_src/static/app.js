@@ -113,6 +113,7 @@ const exampleInputs = readInputs();
 delete exampleInputs.units;
 const exampleKey = keyOf(exampleInputs);
 const exampleBody = resultBody.cloneNode(true);
+const exampleSummary = summary?.querySelector(".summary-text")?.textContent ?? "";
 const onExample = () => keyOf(readInputs()) === exampleKey;
 
 // ---------- the engine worker ----------
@@ -637,7 +638,7 @@ function showExample() {
   setSummary(
     "example",
     v ? { class: [...v.classList].find((c) => c.startsWith("verdict-"))?.slice(8), label: v.querySelector(".verdict-label")?.textContent } : null,
-    `Example: ${resultBody.querySelector(".headline")?.textContent ?? ""}`,
+    exampleSummary,
   );
 }
 
@@ -692,7 +693,7 @@ function render(reply, inputs) {
     resultBody.replaceChildren(buildDisplay(d));
     place(resultBody);
     setState("live", "");
-    setSummary("live", d.verdict, d.headline);
+    setSummary("live", d.verdict, d.summary || d.headline);
     announceSoon(d);
     return;
   }

@@ -154,6 +154,10 @@ def test_verdict_stays_in_view_while_editing(sized):
     h = SIZES[[k for k, v in SIZES.items() if v[0] == sized.viewport_size["width"]][0]][1]
     assert box and 0 <= box["y"] and box["y"] + box["height"] <= h
     assert sized.inner_text("#summary .summary-verdict").lower() == label.lower()
+    # The headline's number is in the bar, whole (not cut by the two-line clamp).
+    assert sized.inner_text("#summary .summary-text") == expected["result"]["display"]["summary"]
+    assert sized.evaluate("() => { const t = document.querySelector('#summary .summary-text');"
+                          " return t.scrollHeight <= t.clientHeight + 1; }")
 
 
 @pytest.mark.parametrize("sized", ["phone"], indirect=True)

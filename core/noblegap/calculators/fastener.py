@@ -181,6 +181,7 @@ def report(n):
     where = ("around the fasteners" if n["anode_member"] == "plate" else
              "at the fasteners")
     rep.headline(members.headline(a, f"({n['anode_member']}) {where}"))
+    rep.summary(members.short_headline(a))
     rep.verdict(n["verdict_class"], n["verdict"], members.verdict_reason(a))
     an, ca = alloys.alloy(a["anode"]), alloys.alloy(a["cathode"])
     if a["galvanic"]:

@@ -393,6 +393,7 @@ def report(n):
                         "the allowance lasts beyond 1000 years."))
     else:
         rep.headline(members.headline(a, where))
+        rep.summary(members.short_headline(a))
     rep.verdict(n["verdict_class"], n["verdict"], members.verdict_reason(a))
     an, ca = alloys.alloy(a["anode"]), alloys.alloy(a["cathode"])
     rep.para(f"The {n['coated_member_role'] if side != 'none' else 'anode'} here is decided by "

@@ -88,6 +88,7 @@ def report(n):
     lk = a["likely"]
     rep = Report()
     rep.headline(members.headline(a, f"({n['anode_member']} member) near the joint"))
+    rep.summary(members.short_headline(a))
     rep.verdict(n["verdict_class"], n["verdict"], members.verdict_reason(a))
     an, ca = alloys.alloy(a["anode"]), alloys.alloy(a["cathode"])
     if a["galvanic"]:

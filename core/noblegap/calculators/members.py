@@ -285,6 +285,13 @@ def headline(a, where):
     return f"{an} {where}: {range_text(a)} locally{mark}; {when}."
 
 
+def short_headline(a):
+    """The headline's numbers for the summary bar: the local rate and the allowance."""
+    lk = a["likely"]
+    return (f"{rate_text(lk['local_mm_per_yr'])} locally; "
+            f"{allowance_phrase(a['years'][1], lk['life_status'])}")
+
+
 def verdict_reason(a):
     y = a["years"]
     lk, hi = a["likely"], a["cases"]["high"]

@@ -118,6 +118,7 @@ def compute_nernst(metal_a, metal_b, conc_a, conc_b, temperature=T25_K,
         rep.headline(f"{name[anode]} is the anode and corrodes: E_cell = "
                      f"{units.fmt(E_cell, 'V', 4)} for {cell_text} at "
                      f"{units.fmt(tC, '°C', 3)}.")
+        rep.summary(f"E_cell = {units.fmt(E_cell, 'V', 4)}; {name[anode]} corrodes")
         # A finding about the cell, not a verdict on a joint: the verdict
         # vocabulary (verdicts.py) judges joints on the joint pages.
         if same:

@@ -341,6 +341,8 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
         rep.headline(f"{alloys._label(an)} is the anode and corrodes faster; "
                      f"{alloys._label(ca)} is the cathode. ΔE = "
                      f"{units.fmt(d_min, '', 2)} to {units.fmt(d_max, 'V', 2)}.")
+        rep.summary(f"ΔE {units.fmt(d_min, '', 2)} to {units.fmt(d_max, 'V', 2)}; "
+                    f"{an['name']} corrodes")
         rep.para(f"{alloys._label(an)} sits lower in the galvanic series "
                  f"({_v(alloys.potential_range(an['id'], environment)[1])} to "
                  f"{_v(alloys.potential_range(an['id'], environment)[0])} vs SCE) than "
