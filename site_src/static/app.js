@@ -650,7 +650,8 @@ function showPending(inputs) {
   else label = "Computing your inputs…";
   resultBody.replaceChildren(echo(inputs));
   setState(engineState === "failed" ? "error" : "pending", label, engineState === "failed" ? "engine" : null);
-  setSummary("pending", null, engineState === "failed" ? "Not computed (engine not started)" : "Computing your inputs…");
+  setSummary("pending", null, engineState === "failed" ? "Not computed (engine not started)"
+    : ready ? "Computing your inputs…" : "Your inputs: computed once the engine is ready");
 }
 
 // Before the engine can answer: the example if these are its inputs, else an echo.
