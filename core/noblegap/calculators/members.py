@@ -604,9 +604,20 @@ def polarization_svg(a):
     return drawings(draw)
 
 
+def _display_units(points, x_label):
+    """Chart points and axis names in the display system (:func:`noblegap.units.system`):
+    mm/yr → mpy and a distance axis named ``…, mm`` → in under US customary."""
+    if units.system() != units.US:
+        return points, x_label, "mm/yr"
+    to_in = x_label.endswith(", mm")
+    pts = [(x / 25.4 if to_in else x, y / 0.0254) for x, y in points]
+    return pts, (x_label[:-4] + ", in") if to_in else x_label, "mpy"
+
+
 def falloff_svg(points, x_label, title):
     """Local rate against distance: ``points`` [(x_mm, mm_per_yr)]; one drawing per
-    width class."""
+    width class, in the display system's units."""
+    points, x_label, rate_unit = _display_units(points, x_label)
     xs = [p[0] for p in points]
     ys = [p[1] for p in points]
     x_hi = max(xs) if max(xs) > 0 else 1.0
@@ -629,7 +640,7 @@ def falloff_svg(points, x_label, title):
             svg.line(x(t), H - B, x(t), H - B + 4, stroke="#555")
             svg.text(x(t), H - B + 18, f"{t:g}", size=TEXT, anchor="middle")
         svg.text(W / 2, H - 8, x_label, size=TEXT, anchor="middle", fill="#444")
-        svg.text(4, 16, "mm/yr", size=TEXT, fill="#444")
+        svg.text(4, 16, rate_unit, size=TEXT, fill="#444")
         svg.polyline([(x(p[0]), y(p[1])) for p in points], stroke=_ANODE, width=2)
         return str(svg)
     return drawings(draw)
@@ -642,6 +653,8 @@ def lines_svg(series, x_label, title):
     """Several rate curves on a log rate axis: ``series`` [(label, [(x, mm_per_yr)])].
     Zero rates sit on the axis floor and are named in the legend. One drawing
     per width class: the narrow one lists the legend in one column."""
+    series = [(label, _display_units(pts, x_label)[0]) for label, pts in series]
+    _, x_label, rate_unit = _display_units([], x_label)
     xs = [x for _, pts in series for x, _ in pts]
     pos = [y for _, pts in series for _, y in pts if y > 0]
     x_hi = max(xs) if xs and max(xs) > 0 else 1.0
@@ -670,7 +683,7 @@ def lines_svg(series, x_label, title):
             svg.line(x(t), bottom, x(t), bottom + 4, stroke="#555")
             svg.text(x(t), bottom + 18, f"{t:g}", size=TEXT, anchor="middle")
         svg.text(W / 2, bottom + 36, x_label, size=TEXT, anchor="middle", fill="#444")
-        svg.text(4, 16, "mm/yr (log scale)", size=TEXT, fill="#444")
+        svg.text(4, 16, f"{rate_unit} (log scale)", size=TEXT, fill="#444")
         col_w = (W - 16) / cols
         for k, (label, pts) in enumerate(series):
             colour = _SERIES[k % len(_SERIES)]
