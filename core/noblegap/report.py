@@ -85,6 +85,12 @@ class Report:
                   "warnings": [], "notes": []}
         self._basis = None
 
+    def summary(self, text):
+        """The headline's number in a few words, for the page's summary bar
+        (a phone shows two lines of it); without it the bar shows the headline."""
+        self.d["summary"] = text
+        return self
+
     def headline(self, text, basis=None):
         """Set the headline. ``basis``: ``(label, source)`` pairs behind it; by
         default every row's source and every table row's source count."""
@@ -136,13 +142,21 @@ class Report:
         return self
 
     def chart(self, title, svg, alt):
-        """An SVG chart. ``min_width`` [px] is the narrowest the page may draw it
-        so that its smallest text is still 12 px on screen; a narrower screen
-        scrolls the chart inside its own box instead of shrinking it."""
-        svg = re.sub(r">([^<]*)</text>", lambda m: f">{true_minus(chem(m.group(1)))}</text>",
-                     str(svg))
-        self.d["charts"].append({"title": title, "svg": svg, "alt": alt,
-                                 "min_width": _min_width(svg)})
+        """An SVG chart: one drawing, or ``{"wide": svg, "narrow": svg}``
+        (:func:`noblegap.svg.drawings`). ``min_width`` [px] is the narrowest
+        column a drawing may be shown in with its smallest text still 12 px; the
+        page shows the wide drawing where the column allows it, else the narrow
+        one, scaled to the column."""
+        def words(text):
+            return re.sub(r">([^<]*)</text>",
+                          lambda m: f">{true_minus(chem(m.group(1)))}</text>", str(text))
+        both = svg if isinstance(svg, dict) else {"wide": svg}
+        wide = words(both["wide"])
+        chart = {"title": title, "svg": wide, "alt": alt, "min_width": _min_width(wide)}
+        if "narrow" in both:
+            narrow = words(both["narrow"])
+            chart["narrow"] = {"svg": narrow, "min_width": _min_width(narrow)}
+        self.d["charts"].append(chart)
         return self
 
     def view(self, view):
@@ -150,10 +164,19 @@ class Report:
         self.d["view"] = view
         return self
 
-    def link(self, label, page, inputs):
-        """A next step: another page of the site, opened with ``inputs`` filled in."""
-        self.d.setdefault("links", []).append(
-            {"label": label, "page": page, "inputs": {k: str(v) for k, v in inputs.items()}})
+    def link(self, label, page, inputs, keep=False, group=None):
+        """A next step: another page of the site, opened with ``inputs`` filled in.
+
+        ``keep`` (a link to the same page): the page's other inputs stay as they
+        are and only ``inputs`` change (an alternative alloy, another choice).
+        ``group``: a heading shared by consecutive links (e.g. "Try another
+        fastener")."""
+        link = {"label": label, "page": page, "inputs": {k: str(v) for k, v in inputs.items()}}
+        if keep:
+            link["keep"] = True
+        if group:
+            link["group"] = group
+        self.d.setdefault("links", []).append(link)
         return self
 
     def warn(self, text):

@@ -96,7 +96,10 @@ class Field:
         if self.kind == QUANTITY and self.unit:
             si = units.KINDS[self.quantity][0]
             shown = units.convert(si_value, si, self.unit)
-            return f"{shown:.4g} {units.symbol(self.unit)}".replace("-", "\u2212")
+            text = f"{shown:.4g}"
+            if "e+" in text:  # 1e+06 is for code; people read 1 000 000
+                text = f"{shown:,.0f}".replace(",", " ")
+            return f"{text} {units.symbol(self.unit)}".replace("-", "\u2212")
         return f"{si_value:g}"
 
     def parse(self, raw):

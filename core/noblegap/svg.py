@@ -22,6 +22,29 @@ def _attrs(attrs):
     return " ".join(parts)
 
 
+#: Every chart is drawn twice: ``wide`` for a column at least 640 px wide and
+#: ``narrow`` for anything narrower (a phone is 300–360 px of column). The page
+#: shows one, scaled to its column's width, so text drawn at :data:`TEXT` in a
+#: drawing no wider than the column is never shown smaller than 12 px.
+SIZES = {"wide": {"width": 640, "ticks": 6}, "narrow": {"width": 300, "ticks": 4}}
+#: Size of every chart text [px of the drawing].
+TEXT = 12
+
+
+def text_width(text, size=TEXT):
+    """A generous estimate of a text's drawn width [px] (system sans-serif).
+
+    >>> text_width("1e-3")
+    27.84
+    """
+    return round(0.58 * size * len(str(text)), 2)
+
+
+def drawings(draw):
+    """``{size name: draw(spec)}`` for every entry of :data:`SIZES`."""
+    return {name: draw(spec) for name, spec in SIZES.items()}
+
+
 class Svg:
     """Collects SVG elements; ``str(svg)`` gives the document."""
 

@@ -113,6 +113,7 @@ const exampleInputs = readInputs();
 delete exampleInputs.units;
 const exampleKey = keyOf(exampleInputs);
 const exampleBody = resultBody.cloneNode(true);
+const exampleSummary = summary?.querySelector(".summary-text")?.textContent ?? "";
 const onExample = () => keyOf(readInputs()) === exampleKey;
 
 // ---------- the engine worker ----------
@@ -306,7 +307,9 @@ function fold(title, nodes, cls) {
   return d;
 }
 
-// Links to the next check, kept only where this site has the page.
+// Links to the next check, kept only where this site has the page. A link
+// that keeps the inputs (an alternative alloy on this page) carries all of
+// the inputs on screen with its own changes.
 function nextSteps(links) {
   const pages = new Set([...document.querySelectorAll(".top nav a")].map((a) => a.getAttribute("href")));
   const usable = (links || []).filter((l) => pages.has(l.page));
@@ -314,30 +317,41 @@ function nextSteps(links) {
   const nav = el("nav", "next-steps");
   nav.setAttribute("aria-label", "Next steps");
   nav.appendChild(el("h3", null, "Next steps"));
-  const ul = el("ul");
+  let ul = null;
+  let group;
   for (const l of usable) {
+    if (!ul || (l.group || null) !== group) {
+      group = l.group || null;
+      if (group) nav.appendChild(el("h4", null, group));
+      ul = nav.appendChild(el("ul"));
+    }
     const li = el("li");
     const a = el("a", null, l.label);
-    const params = new URLSearchParams(l.inputs || {});
-    const u = readInputs().units;
-    if (u) params.set("units", u);
+    const mine = readInputs();
+    const params = new URLSearchParams(l.keep ? { ...mine, ...l.inputs } : l.inputs || {});
+    if (mine.units) params.set("units", mine.units);
     a.href = `${l.page}?${params.toString()}`;
     li.appendChild(a);
     ul.appendChild(li);
   }
-  nav.appendChild(ul);
   return nav;
 }
 
+// A chart comes in two drawings (wide, narrow); style.css shows the one that
+// fits the column (a container query), scaled to the column's width.
 function chartImage(c) {
-  const fig = el("figure", "chart");
-  const box = el("div", "chart-scroll");
-  const img = document.createElement("img");
-  img.alt = c.alt || c.title || "chart";
-  img.src = `data:image/svg+xml;charset=utf-8,${encodeURIComponent(c.svg)}`;
-  if (c.min_width) img.dataset.minWidth = c.min_width;
-  box.appendChild(img);
-  fig.appendChild(box);
+  const fig = el("figure", c.narrow ? "chart chart-pair" : "chart");
+  const drawings = [["chart-wide", c]];
+  if (c.narrow) drawings.push(["chart-narrow", c.narrow]);
+  for (const [cls, d] of drawings) {
+    const box = el("div", `chart-scroll ${cls}`);
+    const img = document.createElement("img");
+    img.alt = c.alt || c.title || "chart";
+    img.src = `data:image/svg+xml;charset=utf-8,${encodeURIComponent(d.svg)}`;
+    if (d.min_width) img.dataset.minWidth = d.min_width;
+    box.appendChild(img);
+    fig.appendChild(box);
+  }
   fig.appendChild(el("figcaption", null, c.title));
   return fig;
 }
@@ -373,9 +387,14 @@ function buildTable(t) {
   const body = el("tbody");
   t.rows.forEach((cells, i) => {
     const tr = el("tr");
-    for (const cell of cells) tr.appendChild(el("td", null, cell));
+    cells.forEach((cell, j) => {
+      const td = el("td", null, cell);
+      td.dataset.col = t.columns[j] ?? "";
+      tr.appendChild(td);
+    });
     if (t.sources) {
       const td = el("td");
+      td.dataset.col = "Source";
       const s = sourceNote(t.sources[i], cells[0]);
       if (s) td.appendChild(s);
       tr.appendChild(td);
@@ -619,7 +638,7 @@ function showExample() {
   setSummary(
     "example",
     v ? { class: [...v.classList].find((c) => c.startsWith("verdict-"))?.slice(8), label: v.querySelector(".verdict-label")?.textContent } : null,
-    `Example: ${resultBody.querySelector(".headline")?.textContent ?? ""}`,
+    exampleSummary,
   );
 }
 
@@ -631,7 +650,8 @@ function showPending(inputs) {
   else label = "Computing your inputs…";
   resultBody.replaceChildren(echo(inputs));
   setState(engineState === "failed" ? "error" : "pending", label, engineState === "failed" ? "engine" : null);
-  setSummary("pending", null, engineState === "failed" ? "Not computed (engine not started)" : "Computing your inputs…");
+  setSummary("pending", null, engineState === "failed" ? "Not computed (engine not started)"
+    : ready ? "Computing your inputs…" : "Your inputs: computed once the engine is ready");
 }
 
 // Before the engine can answer: the example if these are its inputs, else an echo.
@@ -674,7 +694,7 @@ function render(reply, inputs) {
     resultBody.replaceChildren(buildDisplay(d));
     place(resultBody);
     setState("live", "");
-    setSummary("live", d.verdict, d.headline);
+    setSummary("live", d.verdict, d.summary || d.headline);
     announceSoon(d);
     return;
   }

@@ -28,6 +28,18 @@ export function takeEarly() {
   return kept.splice(0);
 }
 
+const restartHooks = new Set();
+
+/**
+ * Be told of every fresh worker the watchdog starts: `hook(newWorker)` runs
+ * before restartWorker() returns (static/engine-client.js re-sends its
+ * pending calls there). Returns a function that removes the hook.
+ */
+export function onRestart(hook) {
+  restartHooks.add(hook);
+  return () => restartHooks.delete(hook);
+}
+
 /**
  * The page's watchdog: end the current worker (a calculation that overran,
  * or an engine that never became ready) and start a fresh one. Returns the
@@ -37,5 +49,6 @@ export function restartWorker() {
   takeEarly();
   worker.terminate();
   worker = new Worker(WORKER_URL, WORKER_OPTIONS);
+  for (const hook of restartHooks) hook(worker);
   return worker;
 }

@@ -148,6 +148,49 @@ def test_an_overrunning_calculation_restarts_the_worker(page, server):
     assert page.inner_text("#result [data-key='potential_V'] .value") == "\u22120.6588 V"
 
 
+def test_sheet_and_compare_calls_survive_a_watchdog_restart(page, server):
+    """A compare call pending on a worker the watchdog ends is answered by the
+    fresh worker, and the sheet's calls work after the restart."""
+    # Worker 1 never answers the job bar's calls (ids from 1 000 000), and stops
+    # answering the page's own calculations once the test says so.
+    page.add_init_script("""(() => {
+        const Real = window.Worker;
+        window.__workers = 0;
+        window.Worker = class extends Real {
+          constructor(...a) { super(...a); this.__n = ++window.__workers; }
+          postMessage(msg, ...rest) {
+            const first = this.__n === 1;
+            if (first && msg && msg.id >= 1000000) return;
+            if (first && msg && msg.id < 1000000 && window.__stall) return;
+            return super.postMessage(msg, ...rest);
+          }
+        };
+      })();""")
+    page.goto(f"{server}/fastener.html?compare=isolate")
+    seq = wait_live(page)
+    assert page.get_attribute("#compare-block", "data-state") != "ready"   # held by worker 1
+    page.evaluate("() => { window.__stall = true; }")
+    page.fill("#f-count", "14")
+    wait_for(page, "() => document.getElementById('result').dataset.reason === 'timeout'", 15_000)
+    assert page.evaluate("() => window.__workers") == 2
+    # The pending compare call was sent again to the fresh worker and answered.
+    page.wait_for_selector("#compare-block[data-state='ready']", timeout=90_000)
+    assert "Electrically isolated" in page.inner_text("#compare-block thead")
+    # A new sheet call (the QR code of the link) works on the fresh worker.
+    got = page.evaluate("""async () => {
+        const { connect } = await import('./static/engine-client.js');
+        const { call } = await connect();
+        const reply = await call('sheet', { op: 'qr', link: location.href });
+        return reply.ok && reply.result && reply.result.ok ? reply.result.svg.slice(0, 4) : reply;
+      }""")
+    assert got == "<svg", got
+    # And the page computes again after an edit.
+    seq = int(page.get_attribute("#result", "data-result-seq"))
+    page.fill("#f-count", "16")
+    wait_live(page, seq)
+    wait_for(page, "() => document.getElementById('result').dataset.state === 'live'")
+
+
 def test_a_power_tower_link_never_leaves_the_page_busy(page, server):
     """``10**10**10 V`` either is refused or overruns and is stopped: never a hang."""
     page.goto(f"{server}/convert.html?potential=10**10**10+V")

@@ -33,6 +33,7 @@ def compute_convert(potential, from_ref, to_ref, temperature):
     rep = Report()
     rep.headline(f"{units.fmt(potential, 'V', 4)} vs {row_from['name']} is "
                  f"{units.fmt(out, 'V', 4)} vs {row_to['name']}.")
+    rep.summary(f"{units.fmt(out, 'V', 4)} vs {_abbr(row_to)}")
     rep.row("Potential on the target scale", units.fmt(out, "V", 4),
             f"computed: E(vs {_abbr(row_to)}) = E(vs {_abbr(row_from)}) + "
             f"E({_abbr(row_from)}) − E({_abbr(row_to)})",

@@ -181,6 +181,7 @@ def report(n):
     where = ("around the fasteners" if n["anode_member"] == "plate" else
              "at the fasteners")
     rep.headline(members.headline(a, f"({n['anode_member']}) {where}"))
+    rep.summary(members.short_headline(a))
     rep.verdict(n["verdict_class"], n["verdict"], members.verdict_reason(a))
     an, ca = alloys.alloy(a["anode"]), alloys.alloy(a["cathode"])
     if a["galvanic"]:
@@ -207,6 +208,10 @@ def report(n):
     members.alternatives_table(rep, n["alternatives"], "Better fasteners for this plate here",
                                "fastener")
     members.mitigations_table(rep, n["mitigations"])
+    members.next_steps(rep, a, "fastener.html", n["plate"], n["fastener"],
+                       n["_conductivity_entered"], alternatives=n["alternatives"],
+                       alternative_key="fastener", alternative_word="fastener",
+                       mitigations=n["mitigations"])
     if a["galvanic"]:
         rep.chart("Polarization diagram", members.polarization_svg(a),
                   "Potential against log current: the anode's curve rising, the cathode's "

@@ -393,6 +393,7 @@ def report(n):
                         "the allowance lasts beyond 1000 years."))
     else:
         rep.headline(members.headline(a, where))
+        rep.summary(members.short_headline(a))
     rep.verdict(n["verdict_class"], n["verdict"], members.verdict_reason(a))
     an, ca = alloys.alloy(a["anode"]), alloys.alloy(a["cathode"])
     rep.para(f"The {n['coated_member_role'] if side != 'none' else 'anode'} here is decided by "
@@ -460,6 +461,12 @@ def report(n):
                 str(n["ranking"].index(s["side"]) + 1)] for s in n["scenarios"]],
               note="Likely rates; the years integrate the rate as the coating breaks down.",
               key="scenarios")
+    for s in n["ranking"]:
+        if s != side:
+            rep.link(f"{SIDE_LABELS[s]}: its result here", "holiday.html", {"coated_side": s},
+                     keep=True, group="The other coating choices")
+    members.next_steps(rep, a, "holiday.html", n["coated"], n["other"],
+                       n["_conductivity_entered"])
     rep.chart("Likely rate over the design life, the four choices",
               members.lines_svg([(SIDE_LABELS[sc["side"]], sc["timeline"])
                                  for sc in n["scenarios"]], "years in service",

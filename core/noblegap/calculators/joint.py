@@ -88,6 +88,7 @@ def report(n):
     lk = a["likely"]
     rep = Report()
     rep.headline(members.headline(a, f"({n['anode_member']} member) near the joint"))
+    rep.summary(members.short_headline(a))
     rep.verdict(n["verdict_class"], n["verdict"], members.verdict_reason(a))
     an, ca = alloys.alloy(a["anode"]), alloys.alloy(a["cathode"])
     if a["galvanic"]:
@@ -112,6 +113,9 @@ def report(n):
     members.alternatives_table(rep, n["alternatives"],
                                "Other alloys for the second member here", "second member")
     members.mitigations_table(rep, n["mitigations"])
+    members.next_steps(rep, a, "joint.html", n["first"], n["second"], n["_conductivity_entered"],
+                       alternatives=n["alternatives"], alternative_key="second",
+                       alternative_word="second member", mitigations=n["mitigations"])
     if a["galvanic"]:
         rep.chart("Polarization diagram", members.polarization_svg(a),
                   "Potential against log current: anode and cathode curves, the ohmic drop "

@@ -15,7 +15,7 @@ from ..errors import InputError
 from ..materials import alloys, cell_data, data
 from ..methods import cell, faraday, galvanic
 from ..schema import CHOICE, QUANTITY, Field
-from ..svg import Svg, nice_ticks, scale
+from ..svg import TEXT, Svg, drawings, nice_ticks, scale, text_width
 
 #: Coating efficiency assumed in the mitigations (fraction of area sealed).
 COATING_EFFICIENCY = 0.95
@@ -176,8 +176,8 @@ MITIGATIONS = {
                   "least as good as the anode's."),
     "coat_anode_only": ("Coating only the anode (a trap)",
                         f"At {COATING_EFFICIENCY:.0%} the holidays left on the anode collect "
-                        "the whole cathode's current. Check holidays on the coating-holiday "
-                        "page (holiday.html)."),
+                        "the whole cathode's current. The next steps open the coating-holiday "
+                        "page with these alloys."),
     "seal": ("Seal out the electrolyte",
              "Jointing compound or sealant in the faying surfaces and holes, caps over "
              "fastener ends: no electrolyte bridging the members, no cell. Effective only "
@@ -283,6 +283,13 @@ def headline(a, where):
         return (f"No galvanic current. {an} loses {range_text(a)} by its own corrosion"
                 f"{mark}; {when}.")
     return f"{an} {where}: {range_text(a)} locally{mark}; {when}."
+
+
+def short_headline(a):
+    """The headline's numbers for the summary bar: the local rate and the allowance."""
+    lk = a["likely"]
+    return (f"{rate_text(lk['local_mm_per_yr'])} locally; "
+            f"{allowance_phrase(a['years'][1], lk['life_status'])}")
 
 
 def verdict_reason(a):
@@ -443,20 +450,92 @@ def mitigations_table(rep, mits):
 
 
 # ---------------------------------------------------------------------------
+# Next steps: the other pages, opened with these alloys
+# ---------------------------------------------------------------------------
+
+#: Which holiday-page choice each coating mitigation is.
+_MITIGATION_SIDE = {"coat_anode_only": "anode", "coat_cathode": "cathode", "coat_both": "both"}
+
+
+def _name(alloy_id):
+    """An alloy as a link carries it: the label the pages' lists show."""
+    return alloys._label(alloys.alloy(alloy_id))
+
+
+def shared_inputs(a, conductivity_entered):
+    """What every galvanic page asks alike, as a link carries it: the environment,
+    the design life and an entered conductivity."""
+    out = {"environment": a["env"]["id"], "design_life": f"{a['design_life_yr']:g} year"}
+    if conductivity_entered:
+        out["conductivity"] = f"{a['likely']['kappa_S_m']:.4g} S/m"
+    return out
+
+
+def next_steps(rep, a, here, larger, smaller, conductivity_entered, alternatives=(),
+               alternative_key=None, alternative_word=None, mitigations=()):
+    """Links from a galvanic page (``here``) to the others with the same alloys.
+
+    ``larger``/``smaller`` are the members' alloy ids as the joint and fastener
+    pages take them (plate and fastener); ``alternatives`` each open this page
+    with that alloy in ``alternative_key`` and the other inputs kept; a coating
+    mitigation opens the coating-holiday page on its choice.
+    """
+    shared = shared_inputs(a, conductivity_entered)
+    for alt in alternatives:
+        if not alt["current"]:
+            rep.link(f"Try {alt['name']} as the {alternative_word}", here,
+                     {alternative_key: _name(alt["alloy"])}, keep=True,
+                     group=f"Try another {alternative_word}")
+    an, ca = _name(a["anode"]), _name(a["cathode"])
+    for m in mitigations:
+        side = _MITIGATION_SIDE.get(m["id"])
+        if side and a["galvanic"]:
+            coated, other = (ca, an) if side == "cathode" else (an, ca)
+            rep.link(f"{m['title']}: holidays on the coating-holiday page", "holiday.html",
+                     {"coated": coated, "other": other, "coated_side": side, **shared},
+                     group="Coatings and their holidays")
+    other = "Other checks of these alloys"
+    if here != "fastener.html":
+        rep.link(f"Fastener check: {_name(smaller)} fasteners in {_name(larger)}",
+                 "fastener.html", {"fastener": _name(smaller), "plate": _name(larger), **shared},
+                 group=other)
+    if here != "joint.html":
+        rep.link(f"Joint check: {_name(larger)} joined to {_name(smaller)}", "joint.html",
+                 {"first": _name(larger), "second": _name(smaller), **shared}, group=other)
+    series_env = {"environment": a["series_env"]}
+    rep.link("Compare the pair in the galvanic series", "pair.html",
+             {"alloy_a": _name(smaller), "alloy_b": _name(larger), **series_env}, group=other)
+    rep.link("See both among the alloy families", "series.html",
+             {"alloy_a": _name(smaller), "alloy_b": _name(larger), **series_env}, group=other)
+
+
+# ---------------------------------------------------------------------------
 # Charts
 # ---------------------------------------------------------------------------
 
 _ANODE, _CATHODE, _OHMIC = "#b3261e", "#1d4f91", "#6b4fa0"
 
 
+def _y_margin(labels):
+    """Left margin [px] that holds the longest y-axis label and its tick."""
+    return max(44.0, max(text_width(t) for t in labels) + 14.0)
+
+
+def _place(svg, x, y, text, lo, hi, gap=6, **kw):
+    """A label beside ``x``: right of it where it fits before ``hi``, else left
+    of it, and never past ``lo``."""
+    w = text_width(text, kw.get("size", TEXT))
+    if x + gap + w <= hi:
+        return svg.text(x + gap, y, text, **kw)
+    return svg.text(max(x - gap, lo + w), y, text, anchor="end", **kw)
+
+
 def polarization_svg(a):
-    """E against log current: anode and cathode curves, ohmic drop, operating point."""
+    """E against log current: anode and cathode curves, ohmic drop, operating
+    point; one drawing per width class (:data:`noblegap.svg.SIZES`)."""
     lk = a["likely"]
     a_el, c_el = lk["_electrodes"]
     A_a, A_c = lk["A_anode_eff_m2"], lk["A_cathode_eff_m2"]
-    W, H = 640, 340
-    L, R, T, B = 60, 20, 20, 50
-    svg = Svg(W, H, "Polarization diagram: potential against log current")
     E_lo = min(a_el.E_corr_V, lk["E_anode_V_SCE"]) - 0.15
     E_hi = max(c_el.E_corr_V, lk["E_cathode_V_SCE"]) + 0.1
     I_op = max(lk["current_A"], 1e-12)
@@ -464,77 +543,107 @@ def polarization_svg(a):
     x_hi = math.ceil(math.log10(max(tops)) + 1)
     x_lo = math.floor(math.log10(max(min(t for t in tops if t > 0), 1e-12)) - 1)
     x_lo = max(x_lo, x_hi - 10)
-    x = scale(x_lo, x_hi, L, W - R)
-    y = scale(E_lo, E_hi, H - B, T)
-    svg.line(L, T, L, H - B, stroke="#555")
-    svg.line(L, H - B, W - R, H - B, stroke="#555")
-    for t in nice_ticks(E_lo, E_hi, 6):
-        svg.line(L - 4, y(t), L, y(t), stroke="#555")
-        svg.text(L - 6, y(t) + 4, f"{t:.2f}", size=10, anchor="end")
-    for d in range(int(x_lo), int(x_hi) + 1):
-        svg.line(x(d), H - B, x(d), H - B + 4, stroke="#555")
-        svg.text(x(d), H - B + 16, f"1e{d}", size=10, anchor="middle")
-    svg.text((L + W - R) / 2, H - 10, "current, A (log scale)", size=11, anchor="middle",
-             fill="#444")
-    svg.text(14, T + 4, "E, V vs SCE", size=11, fill="#444")
     n = 60
 
-    def pts(fn, e0, e1):
+    def curve(fn, e0, e1):
         out = []
         for k in range(n + 1):
             E = e0 + (e1 - e0) * k / n
             I = fn(E)
             if I > 0:
-                lx = min(max(math.log10(I), x_lo), x_hi)
-                out.append((x(lx), y(E)))
+                out.append((min(max(math.log10(I), x_lo), x_hi), E))
         return out
-    svg.polyline(pts(lambda E: A_a * a_el.net(E), a_el.E_corr_V + 1e-4, E_hi),
-                 stroke=_ANODE, width=2)
-    svg.polyline(pts(lambda E: -A_c * c_el.net(E), E_lo, c_el.E_corr_V - 1e-4),
-                 stroke=_CATHODE, width=2)
+    anode = curve(lambda E: A_a * a_el.net(E), a_el.E_corr_V + 1e-4, E_hi)
+    cathode = curve(lambda E: -A_c * c_el.net(E), E_lo, c_el.E_corr_V - 1e-4)
     iL = A_c * c_el.i_L_A_m2
-    if iL > 0 and x_lo < math.log10(iL) < x_hi:
-        svg.line(x(math.log10(iL)), T, x(math.log10(iL)), H - B, stroke=_CATHODE, dash="4 4")
-        svg.text(x(math.log10(iL)) - 4, T + 12, "oxygen limit", size=10, anchor="end",
-                 fill=_CATHODE)
-    if lk["current_A"] > 0:
-        xo = x(min(max(math.log10(I_op), x_lo), x_hi))
-        ya, yc = y(lk["E_anode_V_SCE"]), y(lk["E_cathode_V_SCE"])
-        svg.line(xo, ya, xo, yc, stroke=_OHMIC, width=3)
-        svg.circle(xo, ya, 4, fill=_ANODE)
-        svg.circle(xo, yc, 4, fill=_CATHODE)
-        svg.text(xo + 6, (ya + yc) / 2, f"I·R {lk['ohmic_V']:.2f} V", size=10, fill=_OHMIC)
-        svg.text(xo + 6, ya + 14, f"I = {units.fmt(lk['current_A'], 'A', 2)}", size=10)
-    svg.text(W - R, H - B - 8, f"limit: {lk['limit']}", size=11, anchor="end",
-             weight="bold")
-    svg.text(L + 6, y(a_el.E_corr_V) - 4, "anode", size=10, fill=_ANODE)
-    svg.text(L + 6, y(c_el.E_corr_V) - 4, "cathode", size=10, fill=_CATHODE)
-    return str(svg)
+    y_ticks = [(t, f"{t:.2f}") for t in nice_ticks(E_lo, E_hi, 6)]
+
+    def draw(size):
+        W = size["width"]
+        H = 340 if W >= 600 else 300
+        L, R, T, B = _y_margin([t for _, t in y_ticks]), 14, 28, 50
+        svg = Svg(W, H, "Polarization diagram: potential against log current")
+        x = scale(x_lo, x_hi, L, W - R)
+        y = scale(E_lo, E_hi, H - B, T)
+        svg.line(L, T, L, H - B, stroke="#555")
+        svg.line(L, H - B, W - R, H - B, stroke="#555")
+        for t, label in y_ticks[::max(1, round(len(y_ticks) / size["ticks"]))]:
+            svg.line(L - 4, y(t), L, y(t), stroke="#555")
+            svg.text(L - 6, y(t) + 4, label, size=TEXT, anchor="end")
+        decades = list(range(int(x_lo), int(x_hi) + 1))
+        every = max(1, math.ceil(len(decades) * (text_width("1e-10") + 8) / (W - L - R)))
+        for d in decades:
+            svg.line(x(d), H - B, x(d), H - B + 4, stroke="#555")
+            if (d - decades[-1]) % every == 0:
+                svg.text(x(d), H - B + 18, f"1e{d}", size=TEXT, anchor="middle")
+        svg.text(W / 2, H - 8, "current, A (log scale)", size=TEXT, anchor="middle",
+                 fill="#444")
+        svg.text(4, 16, "E, V vs SCE", size=TEXT, fill="#444")
+        svg.polyline([(x(lx), y(E)) for lx, E in anode], stroke=_ANODE, width=2)
+        svg.polyline([(x(lx), y(E)) for lx, E in cathode], stroke=_CATHODE, width=2)
+        if iL > 0 and x_lo < math.log10(iL) < x_hi:
+            xl = x(math.log10(iL))
+            svg.line(xl, T, xl, H - B, stroke=_CATHODE, dash="4 4")
+            _place(svg, xl, T + 14, "oxygen limit", L, W - R, gap=4, size=TEXT,
+                   fill=_CATHODE)
+        if lk["current_A"] > 0:
+            xo = x(min(max(math.log10(I_op), x_lo), x_hi))
+            ya, yc = y(lk["E_anode_V_SCE"]), y(lk["E_cathode_V_SCE"])
+            svg.line(xo, ya, xo, yc, stroke=_OHMIC, width=3)
+            svg.circle(xo, ya, 4, fill=_ANODE)
+            svg.circle(xo, yc, 4, fill=_CATHODE)
+            _place(svg, xo, (ya + yc) / 2, f"I·R {lk['ohmic_V']:.2f} V", L, W - R,
+                   size=TEXT, fill=_OHMIC)
+            _place(svg, xo, ya + 16, f"I = {units.fmt(lk['current_A'], 'A', 2)}", L, W - R,
+                   size=TEXT)
+        svg.text(W - R, H - B - 8, f"limit: {lk['limit']}", size=TEXT, anchor="end",
+                 weight="bold")
+        svg.text(L + 6, y(a_el.E_corr_V) - 4, "anode", size=TEXT, fill=_ANODE)
+        svg.text(L + 6, y(c_el.E_corr_V) - 4, "cathode", size=TEXT, fill=_CATHODE)
+        return str(svg)
+    return drawings(draw)
+
+
+def _display_units(points, x_label):
+    """Chart points and axis names in the display system (:func:`noblegap.units.system`):
+    mm/yr → mpy and a distance axis named ``…, mm`` → in under US customary."""
+    if units.system() != units.US:
+        return points, x_label, "mm/yr"
+    to_in = x_label.endswith(", mm")
+    pts = [(x / 25.4 if to_in else x, y / 0.0254) for x, y in points]
+    return pts, (x_label[:-4] + ", in") if to_in else x_label, "mpy"
 
 
 def falloff_svg(points, x_label, title):
-    """Local rate against distance: ``points`` [(x_mm, mm_per_yr)]."""
-    W, H = 640, 260
-    L, R, T, B = 60, 20, 20, 45
-    svg = Svg(W, H, title)
+    """Local rate against distance: ``points`` [(x_mm, mm_per_yr)]; one drawing per
+    width class, in the display system's units."""
+    points, x_label, rate_unit = _display_units(points, x_label)
     xs = [p[0] for p in points]
     ys = [p[1] for p in points]
     x_hi = max(xs) if max(xs) > 0 else 1.0
     y_hi = max(ys) * 1.1 if max(ys) > 0 else 1.0
-    x = scale(0.0, x_hi, L, W - R)
-    y = scale(0.0, y_hi, H - B, T)
-    svg.line(L, T, L, H - B, stroke="#555")
-    svg.line(L, H - B, W - R, H - B, stroke="#555")
-    for t in nice_ticks(0.0, y_hi, 5):
-        svg.line(L - 4, y(t), L, y(t), stroke="#555")
-        svg.text(L - 6, y(t) + 4, units.fmt(t, "", 2), size=10, anchor="end")
-    for t in nice_ticks(0.0, x_hi, 6):
-        svg.line(x(t), H - B, x(t), H - B + 4, stroke="#555")
-        svg.text(x(t), H - B + 16, units.fmt(t, "", 3), size=10, anchor="middle")
-    svg.text((L + W - R) / 2, H - 8, x_label, size=11, anchor="middle", fill="#444")
-    svg.text(14, T + 4, "mm/yr", size=11, fill="#444")
-    svg.polyline([(x(p[0]), y(p[1])) for p in points], stroke=_ANODE, width=2)
-    return str(svg)
+
+    def draw(size):
+        W = size["width"]
+        H = 260 if W >= 600 else 240
+        y_ticks = [(t, units.fmt(t, "", 2)) for t in nice_ticks(0.0, y_hi, size["ticks"])]
+        L, R, T, B = _y_margin([t for _, t in y_ticks]), 18, 28, 48
+        svg = Svg(W, H, title)
+        x = scale(0.0, x_hi, L, W - R)
+        y = scale(0.0, y_hi, H - B, T)
+        svg.line(L, T, L, H - B, stroke="#555")
+        svg.line(L, H - B, W - R, H - B, stroke="#555")
+        for t, label in y_ticks:
+            svg.line(L - 4, y(t), L, y(t), stroke="#555")
+            svg.text(L - 6, y(t) + 4, label, size=TEXT, anchor="end")
+        for t in nice_ticks(0.0, x_hi, size["ticks"]):
+            svg.line(x(t), H - B, x(t), H - B + 4, stroke="#555")
+            svg.text(x(t), H - B + 18, f"{t:g}", size=TEXT, anchor="middle")
+        svg.text(W / 2, H - 8, x_label, size=TEXT, anchor="middle", fill="#444")
+        svg.text(4, 16, rate_unit, size=TEXT, fill="#444")
+        svg.polyline([(x(p[0]), y(p[1])) for p in points], stroke=_ANODE, width=2)
+        return str(svg)
+    return drawings(draw)
 
 
 _SERIES = ("#b3261e", "#1f6f43", "#1d4f91", "#b07d12")
@@ -542,34 +651,48 @@ _SERIES = ("#b3261e", "#1f6f43", "#1d4f91", "#b07d12")
 
 def lines_svg(series, x_label, title):
     """Several rate curves on a log rate axis: ``series`` [(label, [(x, mm_per_yr)])].
-    Zero rates sit on the axis floor and are named in the legend."""
-    W, H = 640, 290
-    L, R, T, B = 60, 20, 30, 70
-    svg = Svg(W, H, title)
+    Zero rates sit on the axis floor and are named in the legend. One drawing
+    per width class: the narrow one lists the legend in one column."""
+    series = [(label, _display_units(pts, x_label)[0]) for label, pts in series]
+    _, x_label, rate_unit = _display_units([], x_label)
     xs = [x for _, pts in series for x, _ in pts]
     pos = [y for _, pts in series for _, y in pts if y > 0]
     x_hi = max(xs) if xs and max(xs) > 0 else 1.0
     y_hi = math.ceil(math.log10(max(pos))) if pos else 0
     y_lo = min(math.floor(math.log10(min(pos))), y_hi - 1) if pos else -1
-    x = scale(0.0, x_hi, L, W - R)
-    y = scale(y_lo, y_hi, H - B, T)
-    svg.line(L, T, L, H - B, stroke="#555")
-    svg.line(L, H - B, W - R, H - B, stroke="#555")
-    for d in range(int(y_lo), int(y_hi) + 1):
-        svg.line(L - 4, y(d), L, y(d), stroke="#555")
-        svg.text(L - 6, y(d) + 4, units.fmt(10.0 ** d, "", 1), size=10, anchor="end")
-    for t in nice_ticks(0.0, x_hi, 6):
-        svg.line(x(t), H - B, x(t), H - B + 4, stroke="#555")
-        svg.text(x(t), H - B + 16, units.fmt(t, "", 3), size=10, anchor="middle")
-    svg.text((L + W - R) / 2, H - B + 32, x_label, size=11, anchor="middle", fill="#444")
-    svg.text(8, 14, "mm/yr (log scale)", size=11, fill="#444")
-    for k, (label, pts) in enumerate(series):
-        colour = _SERIES[k % len(_SERIES)]
-        line = [(x(px), y(max(math.log10(py), y_lo) if py > 0 else y_lo)) for px, py in pts]
-        svg.polyline(line, stroke=colour, width=2, dash="6 4" if k % 2 else None)
-        svg.text(L + 8 + (k % 2) * 290, H - 22 + (k // 2) * 14, f"— {label}", size=10,
-                 fill=colour)
-    return str(svg)
+    y_ticks = [(d, units.fmt(10.0 ** d, "", 1)) for d in range(int(y_lo), int(y_hi) + 1)]
+
+    def draw(size):
+        W = size["width"]
+        cols = 2 if W >= 600 else 1
+        rows = math.ceil(len(series) / cols)
+        L, R, T = _y_margin([t for _, t in y_ticks]), 18, 30
+        bottom = T + (190 if cols == 2 else 170)
+        H = bottom + 52 + rows * 17
+        svg = Svg(W, H, title)
+        x = scale(0.0, x_hi, L, W - R)
+        y = scale(y_lo, y_hi, bottom, T)
+        svg.line(L, T, L, bottom, stroke="#555")
+        svg.line(L, bottom, W - R, bottom, stroke="#555")
+        every = max(1, math.ceil(len(y_ticks) / (size["ticks"] + 2)))
+        for d, label in y_ticks:
+            svg.line(L - 4, y(d), L, y(d), stroke="#555")
+            if (d - y_ticks[-1][0]) % every == 0:
+                svg.text(L - 6, y(d) + 4, label, size=TEXT, anchor="end")
+        for t in nice_ticks(0.0, x_hi, size["ticks"]):
+            svg.line(x(t), bottom, x(t), bottom + 4, stroke="#555")
+            svg.text(x(t), bottom + 18, f"{t:g}", size=TEXT, anchor="middle")
+        svg.text(W / 2, bottom + 36, x_label, size=TEXT, anchor="middle", fill="#444")
+        svg.text(4, 16, f"{rate_unit} (log scale)", size=TEXT, fill="#444")
+        col_w = (W - 16) / cols
+        for k, (label, pts) in enumerate(series):
+            colour = _SERIES[k % len(_SERIES)]
+            line = [(x(px), y(max(math.log10(py), y_lo) if py > 0 else y_lo)) for px, py in pts]
+            svg.polyline(line, stroke=colour, width=2, dash="6 4" if k % 2 else None)
+            svg.text(8 + (k % cols) * col_w, bottom + 58 + (k // cols) * 17, f"— {label}",
+                     size=TEXT, fill=colour)
+        return str(svg)
+    return drawings(draw)
 
 
 def spread_points(a):

@@ -19,7 +19,7 @@ from ..methods.nernst import (ACTIVITY_DAVIES, ACTIVITY_IDEAL, C_STANDARD_MOL_M3
 from ..methods.nernst import read_concentration
 from ..report import Report
 from ..schema import CHOICE, QUANTITY, TEXT, Calculator, Field
-from ..svg import Svg, nice_ticks, scale
+from ..svg import TEXT, Svg, drawings, nice_ticks, scale, text_width
 from .fields import temperature_field
 
 
@@ -118,6 +118,7 @@ def compute_nernst(metal_a, metal_b, conc_a, conc_b, temperature=T25_K,
         rep.headline(f"{name[anode]} is the anode and corrodes: E_cell = "
                      f"{units.fmt(E_cell, 'V', 4)} for {cell_text} at "
                      f"{units.fmt(tC, '°C', 3)}.")
+        rep.summary(f"E_cell = {units.fmt(E_cell, 'V', 4)}; {name[anode]} corrodes")
         # A finding about the cell, not a verdict on a joint: the verdict
         # vocabulary (verdicts.py) judges joints on the joint pages.
         if same:
@@ -318,9 +319,8 @@ def _plain_words(ra, rb, res, anode, std_anode, is_reversed, same, c_a, c_b, x_r
 
 
 def _chart(ra, rb, res, c_a, T_K, x_user, x_rev, in_chart):
-    """E_cell against x = log10(conc_b/conc_a), conc_a fixed, ±6 decades."""
-    W, H = 640, 360
-    L, R, T, B = 70, 20, 30, 60
+    """E_cell against x = log10(conc_b/conc_a), conc_a fixed, ±6 decades; one
+    drawing per width class (:data:`noblegap.svg.SIZES`)."""
     x_lo, x_hi = x_user - 6.0, x_user + 6.0
     slope = res["nu_b"] * thermal_voltage(T_K) * math.log(10) / rb["n"]
 
@@ -330,53 +330,69 @@ def _chart(ra, rb, res, c_a, T_K, x_user, x_rev, in_chart):
     y_lo, y_hi = min(e_lo, e_hi, 0.0), max(e_lo, e_hi, 0.0)
     pad = 0.08 * (y_hi - y_lo or 0.1)
     y_lo, y_hi = y_lo - pad, y_hi + pad
-    sx, sy = scale(x_lo, x_hi, L, W - R), scale(y_lo, y_hi, H - B, T)
-    svg = Svg(W, H, title="Cell potential against log10 of the concentration ratio")
-    svg.rect(L, T, W - L - R, H - T - B, fill="#f7f6f2", stroke="#bbb")
-    for tx in nice_ticks(x_lo, x_hi, 8):
-        svg.line(sx(tx), T, sx(tx), H - B, stroke="#e2e0d8")
-        svg.text(sx(tx), H - B + 16, f"{tx:g}".replace("-", "\u2212"), size=11,
-                 anchor="middle")
-    for ty in nice_ticks(y_lo, y_hi, 6):
-        ty = 0.0 if abs(ty) < 1e-12 else ty
-        svg.line(L, sy(ty), W - R, sy(ty), stroke="#e2e0d8")
-        svg.text(L - 6, sy(ty) + 4, f"{ty:.3g}".replace("-", "\u2212"), size=11,
-                 anchor="end")
-    svg.line(L, sy(0.0), W - R, sy(0.0), stroke="#555", width=1.2, dash="5,3")
-    svg.text(L + 4, sy(0.0) - 5, "E_cell = 0", size=10, fill="#555")
-    svg.polyline([(sx(x_lo), sy(e_lo)), (sx(x_hi), sy(e_hi))], stroke="#1f5f8b", width=2.5)
-    svg.circle(sx(x_user), sy(res["E_cell_V"]), 5, fill="#c0392b", stroke="#fff")
-    # The line always rises to the right, so text above-left of a point is clear of it.
-    svg.text(sx(x_user) - 8, sy(res["E_cell_V"]) - 8, "your conditions", size=11,
-             anchor="end", fill="#c0392b")
-    if in_chart:
-        svg.circle(sx(x_rev), sy(0.0), 5, fill="#fff", stroke="#1f5f8b")
-        label = f"reversal at {x_rev:.2f}".replace("-", "\u2212")
-        if sx(x_rev) > (L + W - R) / 2:
-            svg.text(sx(x_rev) - 8, sy(0.0) - 8, label, size=11, anchor="end",
-                     fill="#1f5f8b")
+    axis = f"log10(c_b / c_a), {ra['ion']} held at {_fmt_conc(c_a)}"
+
+    def draw(size):
+        W = size["width"]
+        y_ticks = [0.0 if abs(t) < 1e-12 else t for t in nice_ticks(y_lo, y_hi, size["ticks"])]
+        y_labels = [f"{t:.3g}".replace("-", "\u2212") for t in y_ticks]
+        L = max(text_width(t) for t in y_labels) + 34
+        R, T = 16, 30
+        lines = [axis] if text_width(axis) <= W - 8 else [
+            "log10(c_b / c_a),", f"{ra['ion']} held at {_fmt_conc(c_a)}"]
+        B = 44 + 16 * len(lines)
+        H = (360 if W >= 600 else 300) + 16 * (len(lines) - 1)
+        sx, sy = scale(x_lo, x_hi, L, W - R), scale(y_lo, y_hi, H - B, T)
+        svg = Svg(W, H, title="Cell potential against log10 of the concentration ratio")
+        svg.rect(L, T, W - L - R, H - T - B, fill="#f7f6f2", stroke="#bbb")
+        for tx in nice_ticks(x_lo, x_hi, 2 * size["ticks"] - 4):
+            svg.line(sx(tx), T, sx(tx), H - B, stroke="#e2e0d8")
+            svg.text(sx(tx), H - B + 18, f"{tx:g}".replace("-", "\u2212"), size=TEXT,
+                     anchor="middle")
+        for ty, label in zip(y_ticks, y_labels):
+            svg.line(L, sy(ty), W - R, sy(ty), stroke="#e2e0d8")
+            svg.text(L - 6, sy(ty) + 4, label, size=TEXT, anchor="end")
+        svg.line(L, sy(0.0), W - R, sy(0.0), stroke="#555", width=1.2, dash="5,3")
+        svg.text(L + 4, sy(0.0) - 5, "E_cell = 0", size=TEXT, fill="#555")
+        svg.polyline([(sx(x_lo), sy(e_lo)), (sx(x_hi), sy(e_hi))], stroke="#1f5f8b",
+                     width=2.5)
+        svg.circle(sx(x_user), sy(res["E_cell_V"]), 5, fill="#c0392b", stroke="#fff")
+        # The line always rises to the right, so text above-left of a point is clear of it.
+        svg.text(sx(x_user) - 8, sy(res["E_cell_V"]) - 8, "your conditions", size=TEXT,
+                 anchor="end", fill="#c0392b")
+        if in_chart:
+            svg.circle(sx(x_rev), sy(0.0), 5, fill="#fff", stroke="#1f5f8b")
+            label = f"reversal at {x_rev:.2f}".replace("-", "\u2212")
+            if sx(x_rev) + 8 + text_width(label) > W - R:
+                svg.text(sx(x_rev) - 8, sy(0.0) - 8, label, size=TEXT, anchor="end",
+                         fill="#1f5f8b")
+            else:
+                svg.text(sx(x_rev) + 8, sy(0.0) + 18, label, size=TEXT, fill="#1f5f8b")
         else:
-            svg.text(sx(x_rev) + 8, sy(0.0) + 16, label, size=11, fill="#1f5f8b")
+            side = "left" if x_rev < x_lo else "right"
+            svg.text(L + 6 if side == "left" else W - R - 6, T + 16,
+                     f"reversal at {x_rev:.1f}: off the chart".replace("-", "\u2212"),
+                     size=TEXT, anchor="start" if side == "left" else "end", fill="#1f5f8b")
+        for k, line in enumerate(lines):
+            svg.text(W / 2, H - 10 - 16 * (len(lines) - 1 - k), line, size=TEXT,
+                     anchor="middle")
+        svg.add("text", "E_cell (V)", x=16, y=(T + H - B) / 2, font_size=TEXT,
+                text_anchor="middle", font_family=Svg.FONT,
+                transform=f"rotate(-90 16 {(T + H - B) / 2:.1f})")
+        svg.text(L + 6, T - 10, f"{ra['metal']} | {ra['ion']} || {rb['ion']} | {rb['metal']}",
+                 size=TEXT, weight="600")
+        return str(svg)
+
+    if in_chart:
         rev_note = f"the couple reverses at log10 ratio {x_rev:.2f}"
     else:
         side = "left" if x_rev < x_lo else "right"
         rev_note = (f"the reversal point (log10 ratio {x_rev:.1f}) is off the chart to "
                     f"the {side}")
-        svg.text(L + 6 if side == "left" else W - R - 6, T + 16,
-                 f"reversal at {x_rev:.1f}: off the chart".replace("-", "\u2212"), size=11,
-                 anchor="start" if side == "left" else "end", fill="#1f5f8b")
-    svg.text((L + W - R) / 2, H - 18,
-             f"log10(c_b / c_a), {ra['ion']} held at {_fmt_conc(c_a)}", size=12,
-             anchor="middle")
-    svg.add("text", "E_cell (V)", x=16, y=(T + H - B) / 2, font_size=12,
-            text_anchor="middle", font_family=Svg.FONT,
-            transform=f"rotate(-90 16 {(T + H - B) / 2:.1f})")
-    svg.text(L + 6, T - 10, f"{ra['metal']} | {ra['ion']} || {rb['ion']} | {rb['metal']}",
-             size=12, weight="600")
     alt = (f"Straight line of E_cell against log10(c_b/c_a) from {x_lo:.1f} to "
            f"{x_hi:.1f}, slope {slope * 1e3:.1f} mV per decade; your point at "
            f"{x_user:.2f} gives {res['E_cell_V']:.4f} V; {rev_note}.")
-    return str(svg), alt
+    return drawings(draw), alt
 
 
 def _temperature_field():

@@ -43,7 +43,7 @@ from __future__ import annotations
 import re
 
 from .. import units
-from ..materials import alloys, references
+from ..materials import alloys, cell_data, references
 from .. import verdicts
 from ..report import Report
 from ..schema import Calculator
@@ -341,6 +341,8 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
         rep.headline(f"{alloys._label(an)} is the anode and corrodes faster; "
                      f"{alloys._label(ca)} is the cathode. ΔE = "
                      f"{units.fmt(d_min, '', 2)} to {units.fmt(d_max, 'V', 2)}.")
+        rep.summary(f"ΔE {units.fmt(d_min, '', 2)} to {units.fmt(d_max, 'V', 2)}; "
+                    f"{an['name']} corrodes")
         rep.para(f"{alloys._label(an)} sits lower in the galvanic series "
                  f"({_v(alloys.potential_range(an['id'], environment)[1])} to "
                  f"{_v(alloys.potential_range(an['id'], environment)[0])} vs SCE) than "
@@ -394,19 +396,21 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
     view["title"] = "The pair on one potential scale"
     rep.view(view)
     env_id = env["id"]
+    # The rate pages list their own environments: the link names the one this opens.
+    cell_env = cell_data.resolve_environment(env_id)
     rep.link(f"Fastener check: {la} fasteners in {lb}", "fastener.html",
-             {"fastener": la, "plate": lb, "environment": env_id})
+             {"fastener": la, "plate": lb, "environment": cell_env})
     if ra["id"] != rb["id"]:
         rep.link(f"Fastener check: {lb} fasteners in {la}", "fastener.html",
-                 {"fastener": lb, "plate": la, "environment": env_id})
+                 {"fastener": lb, "plate": la, "environment": cell_env})
     rep.link(f"Joint check: {la} joined to {lb} (pipe on a bracket, plate on plate)",
-             "joint.html", {"first": la, "second": lb, "environment": env_id})
+             "joint.html", {"first": la, "second": lb, "environment": cell_env})
     coated = alloys.alloy(c["anode"]) if c["anode"] not in (NONE, OVERLAP) else ra
     other = rb if coated["id"] == ra["id"] else ra
     rep.link(f"Coating holidays: coated {alloys._label(coated)} next to "
              f"{alloys._label(other)}", "holiday.html",
              {"coated": alloys._label(coated), "other": alloys._label(other),
-              "environment": env_id})
+              "environment": cell_env})
     rep.link("See both among the alloy families", "series.html",
              {"alloy_a": la, "alloy_b": lb, "environment": env_id})
     return {
