@@ -157,3 +157,25 @@ def test_cases_are_ordered_low_likely_high():
 def test_film_oxygen_limit_follows_ficks_law():
     # i_L = 4·F·D·c/h is inversely proportional to the film thickness
     assert galvanic.film_limit_A_m2(1e-5) == pytest.approx(10 * galvanic.film_limit_A_m2(1e-4))
+
+
+def test_one_law_in_the_solver_and_on_the_charts():
+    """The solver's net law (one closure) is the charts' dissolution − cathodic."""
+    for kw in (STEEL, BRONZE, ALUMINIUM, STAINLESS, dict(STAINLESS, E_b_V=None)):
+        e = el(**kw)
+        for k in range(-40, 41):
+            E = e.E_corr_V + 0.02 * k
+            assert e.net(E) == pytest.approx(e.dissolution(E) - e.cathodic(E), rel=1e-12,
+                                             abs=1e-15)
+
+
+@settings(max_examples=40, deadline=None)
+@given(A_a=st.floats(1e-6, 10.0), A_c=st.floats(1e-4, 100.0), R=st.floats(0.0, 1e4),
+       shift=st.floats(-0.3, 0.3))
+def test_a_guess_changes_only_the_work_not_the_answer(A_a, A_c, R, shift):
+    a, c = el(**STEEL), el(**BRONZE)
+    s = cell.solve(a, c, A_a, A_c, R)
+    g = cell.solve(a, c, A_a, A_c, R, guess_V=s.E_anode_V + shift)
+    assert g.E_anode_V == pytest.approx(s.E_anode_V, abs=1e-8)
+    assert g.E_cathode_V == pytest.approx(s.E_cathode_V, abs=1e-8)
+    assert g.current_A == pytest.approx(s.current_A, rel=1e-6, abs=1e-15)

@@ -291,7 +291,8 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
         R = (math.inf if isolated else
              (resistance_ohm(lay, rho, max(A_sur, 1e-12), film, lam) + R_extra_ohm)
              if A_c_eff > 0 else math.inf)
-        sol = cell.solve(anode_el, cathode_el, A_a_eff, A_c_eff, R)
+        sol = cell.solve(anode_el, cathode_el, A_a_eff, A_c_eff, R,
+                         guess_V=sol.E_anode_V if sol is not None else None)
         if not lay.surrounds or sol.current_A == 0:
             break
         sur_el, E_sur = (cathode_el, sol.E_cathode_V) if lay.site_role == "anode" else \
