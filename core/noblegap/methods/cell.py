@@ -286,7 +286,7 @@ class Solution:
 
 
 def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-9, max_iter=200,
-          guess_V=None):
+          guess_V=None, step_V=3e-3):
     """Galvanic current and electrode potentials of a two-member cell.
 
     Parameters
@@ -304,6 +304,9 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-9, max_it
     guess_V : float, optional
         A likely anode potential [V] (a nearby cell's solution); the result
         is the same to within ``tol_V``, found with fewer evaluations.
+    step_V : float
+        How far from ``guess_V`` the root likely lies [V]: the first bracket's
+        width (widened eightfold at a time until it holds the root).
 
     Returns
     -------
@@ -335,7 +338,7 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-9, max_it
         return Solution(0.0, lo, hi, own, 0.0, own, 0.0, 0.0, 0.0, 0.0, max(driving, 0.0),
                         LIMIT_NONE, 0.0)
     Ea, I = _root(anode._net, cathode._net, A_anode_m2, A_cathode_m2, R_ohm, lo, hi,
-                  tol_V, max_iter, guess_V)
+                  tol_V, max_iter, guess_V, max(step_V, 10.0 * tol_V))
     Ec = min(Ea + I * R_ohm, cathode.E_corr_V)
     i_d = anode.dissolution(Ea)
     i_g = I / A_anode_m2
@@ -350,7 +353,7 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-9, max_it
                     driving, limit, frac)
 
 
-def _root(net_a, net_c, A_a, A_c, R, lo, hi, tol_V, max_iter, guess):
+def _root(net_a, net_c, A_a, A_c, R, lo, hi, tol_V, max_iter, guess, step):
     """(E_a, I) where h(E_a) = −A_c·n_c(E_a + I·R) − I = 0, I = A_a·max(n_a(E_a), 0).
 
     Brent's method on the bracket [lo, hi] (h(lo) ≥ 0 ≥ h(hi)). It stops when
@@ -367,7 +370,6 @@ def _root(net_a, net_c, A_a, A_c, R, lo, hi, tol_V, max_iter, guess):
     a = None
     if guess is not None and lo < guess < hi:
         g, (fg, Ig) = guess, h(guess)
-        step = 3e-3
         if fg > 0:                       # root above the guess
             a, fa, Ia = g, fg, Ig
             while True:

@@ -260,7 +260,18 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
         ``A_cathode_eff_m2``, ``A_anode_m2`` (wetted total), ``R_ohm``,
         ``spread_m`` (λ on the surround member, math.inf when unbounded),
         ``ohmic_limit_A`` (ΔV/R, the current with no polarization at all).
+        Read-only: the same inputs return the same dict (a page asks for the
+        same case more than once: the current alloy among the alternatives,
+        a bare couple at every point of a coating's life, an edit of the life
+        or the allowance alone).
     """
+    return _solve_case(anode_el, cathode_el, layout, elec["rho_ohm_m"], elec["film_m"],
+                       isolated, R_extra_ohm, coat_anode, coat_cathode)
+
+
+@lru_cache(maxsize=512)
+def _solve_case(anode_el, cathode_el, layout, rho, film, isolated, R_extra_ohm, coat_anode,
+                coat_cathode):
     A_an, A_ca = layout.areas()
     A_an *= (1.0 - coat_anode)
     A_ca *= (1.0 - coat_cathode)
@@ -271,7 +282,6 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
                  A_an if layout.site_role == "anode" else A_ca,
                  A_ca if layout.site_role == "anode" else A_an,
                  layout.site_radius_m, layout.faces, layout.distance_m, layout.surrounds)
-    rho, film = elec["rho_ohm_m"], elec["film_m"]
     # λ beyond the member's own size changes nothing: cap it there, start there,
     # and damp the fixed point in log space (geometric mean of old and new). The
     # fixed point need not be unique (a cathode near its free potential is "stiff",
@@ -286,7 +296,7 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
     per_site = lay.sites * (lay.faces if film is not None else 1)
     sur_is_cathode = lay.site_role == "anode"
 
-    def at(lam, guess):
+    def at(lam, guess, step=3e-3):
         """(solution, A_a_eff, A_c_eff, R, new λ or None) with the surround within λ."""
         A_sur = _surround_area(lay, lam) if lay.surround_area_m2 > 0 else 0.0
         A_a_eff, A_c_eff = (lay.site_area_m2, A_sur) if sur_is_cathode else \
@@ -296,7 +306,8 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
         R = (math.inf if isolated else
              (resistance_ohm(lay, rho, max(A_sur, 1e-12), film, lam) + R_extra_ohm)
              if A_c_eff > 0 else math.inf)
-        sol = cell.solve(anode_el, cathode_el, A_a_eff, A_c_eff, R, guess_V=guess)
+        sol = cell.solve(anode_el, cathode_el, A_a_eff, A_c_eff, R, guess_V=guess,
+                         step_V=step)
         if not lay.surrounds or sol.current_A == 0:
             return sol, A_a_eff, A_c_eff, R, None
         sur_el, E_sur = (cathode_el, sol.E_cathode_V) if sur_is_cathode else \
@@ -308,11 +319,15 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
 
     sol = None
     visited = []          # (λ, log(λ_new/λ)) of every damped step that did not settle
+    step = 3e-3           # how far the anode potential moved in the last step [V]
     for _ in range(SPREAD_ITERATIONS):
-        state = at(lam, sol.E_anode_V if sol is not None else None)
+        prev = sol
+        state = at(lam, sol.E_anode_V if sol is not None else None, step)
         if state is None:
             break
         sol, A_a_eff, A_c_eff, R, new_lam = state
+        if prev is not None:
+            step = 0.5 * abs(sol.E_anode_V - prev.E_anode_V)
         if new_lam is None:
             break
         phi = math.log(new_lam / lam)
