@@ -126,8 +126,10 @@ def film_limit_A_m2(film_m):
     return 4.0 * _faraday() * O2_DIFFUSIVITY_M2_S * O2_CONCENTRATION_MOL_M3 / film_m
 
 
+@lru_cache(maxsize=256)
 def electrolyte_case(env_id, case, conductivity_S_m=None):
-    """Conductivity, oxygen limit, film and wet fraction of one case.
+    """Conductivity, oxygen limit, film and wet fraction of one case (read-only:
+    the tables do not change while the core runs, so each case is read once).
 
     Returns
     -------
@@ -162,8 +164,10 @@ def electrolyte_case(env_id, case, conductivity_S_m=None):
     return out
 
 
+@lru_cache(maxsize=512)
 def electrode(alloy_id, E_corr_V, case, i_L_A_m2):
-    """:class:`cell.Electrode` of an alloy from ``data/cell_kinetics.csv``.
+    """:class:`cell.Electrode` of an alloy from ``data/cell_kinetics.csv`` (an
+    immutable value, built once per set of arguments).
 
     ``case`` picks the own corrosion (passive) current density: high for the
     anode's high case. The own current density is kept below i_L.
