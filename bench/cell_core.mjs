@@ -75,9 +75,10 @@ for calc in ("holiday", "joint", "fastener"):
         api.run(calc, ex)
         ts.append((time.perf_counter() - t0) * 1000)
     rows[f"{calc} page, whole result (api.run)"] = ts
-json.dumps({k: [len(v), pct(v, 50), pct(v, 95)] for k, v in rows.items()})
+json.dumps({k: [len(v), pct(v, 50), pct(v, 95), min(v)] for k, v in rows.items()})
 `);
-console.log(`${"what (Pyodide under Node)".padEnd(58)}    n   p50 ms   p95 ms  target p95 <= 16 ms`);
-for (const [k, [n, p50, p95]] of Object.entries(JSON.parse(out))) {
-  console.log(`${k.padEnd(58)} ${String(n).padStart(4)} ${p50.toFixed(1).padStart(8)} ${p95.toFixed(1).padStart(8)}`);
+// min: the least a call took (on a loaded machine the other figures carry the load)
+console.log(`${"what (Pyodide under Node)".padEnd(58)}    n   min ms   p50 ms   p95 ms  target p95 <= 16 ms`);
+for (const [k, [n, p50, p95, lo]] of Object.entries(JSON.parse(out))) {
+  console.log(`${k.padEnd(58)} ${String(n).padStart(4)} ${lo.toFixed(1).padStart(8)} ${p50.toFixed(1).padStart(8)} ${p95.toFixed(1).padStart(8)}`);
 }
