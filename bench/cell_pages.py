@@ -94,10 +94,12 @@ def browser_timings(pages, edits, sites):
     are timed page by page in turn, so a change in the machine's load falls on both."""
     import contextlib
 
+    from playwright.sync_api import TimeoutError as PlaywrightTimeout
     from playwright.sync_api import sync_playwright
 
     from _site import ensure_site, serve_site
     out = {}
+    missed = {}
     with contextlib.ExitStack() as stack, sync_playwright() as p:
         bases = {label: stack.enter_context(serve_site(Path(d) if d else ensure_site()))
                  for label, d in sites.items()}
@@ -117,14 +119,20 @@ def browser_timings(pages, edits, sites):
                 for i in range(edits):
                     seq = int(page.get_attribute("#result", "data-result-seq") or 0)
                     page.fill(f"#f-{field}", value(i))
-                    page.wait_for_selector(f'#result[data-result-seq="{seq + 1}"]',
-                                           state="attached", timeout=60_000)
+                    try:
+                        page.wait_for_selector(f'#result[data-result-seq="{seq + 1}"]',
+                                               state="attached", timeout=60_000)
+                    except PlaywrightTimeout:
+                        missed[f"{calc} ({label})"] = missed.get(f"{calc} ({label})", 0) + 1
+                        continue
                     v = page.get_attribute("#result", "data-latency-ms")
                     if v is not None:
                         lat.append(float(v))
                 out.setdefault(f"{calc} page, input to DOM (Chromium)", {})[label] = lat
                 page.close()
         browser.close()
+    for what, n in missed.items():
+        print(f"note: {n} edit(s) of the {what} page gave no new result within 60 s")
     return out
 
 
