@@ -1,6 +1,7 @@
 """Timing of the galvanic-cell pages (fastener, holiday, joint) in headless Chromium.
 
     python3 bench/cell_pages.py [--edits 40] [--pages fastener,holiday,joint]
+                                [--site DIR] [--before-site DIR]
 
 Run by hand, not by the test suite. Serves the built site/ on loopback (the
 test suite's server, with the site's CSP), opens each page in Debian's
@@ -16,6 +17,14 @@ A second figure isolates one assessment: the core's own timer around
 ``galvanic.assess`` (one couple, all three cases, uncertainty included) is
 read through the page's worker by timing a holiday case with no alternatives
 (holiday page, the lightest galvanic page), and, on CPython, directly.
+
+Every edit types a value not typed before, so no result comes from the core's
+memory of recent cases (``galvanic.solve_case``); the CPython timings clear it
+before each call.
+
+``--site DIR`` times an already built site instead of building site/;
+``--before-site DIR`` (another build, e.g. of the main branch) is timed in the
+same run, page by page in turn with the same edits, and printed beside it.
 
 Target (issue 16): one calculation, uncertainty included, ≤ 16 ms p95 in the
 browser.
@@ -34,10 +43,11 @@ sys.path.insert(0, str(ROOT / "tests"))
 sys.path.insert(0, str(ROOT / "core"))
 
 CHROMIUM = "/usr/bin/chromium"
+#: The field each page's edits change, and the value of edit i (never repeated).
 EDITS = {
-    "fastener": ("count", ["10", "11", "12", "13", "14"]),
-    "holiday": ("holiday_count", ["10", "11", "12", "13", "14"]),
-    "joint": ("second_area", ["0.02 m²", "0.021 m²", "0.022 m²", "0.023 m²", "0.024 m²"]),
+    "fastener": ("count", lambda i: str(10 + i)),
+    "holiday": ("holiday_count", lambda i: str(10 + i)),
+    "joint": ("second_area", lambda i: f"{0.02 + 0.0005 * i:.4f} m²"),
 }
 
 
@@ -53,57 +63,76 @@ def cpython_timings(n=30):
 
     from noblegap import api
     from noblegap.methods import galvanic
+    forget = getattr(getattr(galvanic, "_solve_case", None), "cache_clear", lambda: None)
+
+    def timed(fn):
+        fn()
+        ts = []
+        for _ in range(n):
+            forget()
+            t0 = time.perf_counter()
+            fn()
+            ts.append((time.perf_counter() - t0) * 1000)
+        return ts
+
     out = {}
     for calc in EDITS:
         ex = api.get(calc).example
-        api.run(calc, ex)
-        ts = []
-        for _ in range(n):
-            t0 = time.perf_counter()
-            api.run(calc, ex)
-            ts.append((time.perf_counter() - t0) * 1000)
-        out[f"{calc} page (CPython)"] = ts
+        out[f"{calc} page (CPython)"] = timed(lambda: api.run(calc, ex))
     lay = galvanic.Layout("anode", 1, math.pi * 25e-6, 10.0, 5e-3, surrounds=False)
-    ts = []
-    for _ in range(n):
-        t0 = time.perf_counter()
-        galvanic.assess("carbon_steel", "C95800", "seawater_flowing", lambda rule: lay,
-                        allowance_of=lambda _a: (6e-3, None))
-        ts.append((time.perf_counter() - t0) * 1000)
-    out["one assessment, 3 cases (CPython)"] = ts
+    out["one assessment, seawater (CPython)"] = timed(lambda: galvanic.assess(
+        "carbon_steel", "C95800", "seawater_flowing", lambda rule: lay,
+        allowance_of=lambda _a: (6e-3, None)))
+    lay_f = galvanic.Layout("cathode", 12, 12 * 1.7e-3, 0.96, 0.01, 2)
+    out["one assessment, CX film (CPython)"] = timed(lambda: galvanic.assess(
+        "S31600", "A95083", "CX", lambda rule: lay_f, allowance_of=lambda _a: (6e-4, None)))
     return out
 
 
-def browser_timings(pages, edits):
+def browser_timings(pages, edits, sites):
+    """``sites`` {label: built site dir or None (site/, built if needed)}; the sites
+    are timed page by page in turn, so a change in the machine's load falls on both."""
+    import contextlib
+
+    from playwright.sync_api import TimeoutError as PlaywrightTimeout
     from playwright.sync_api import sync_playwright
 
     from _site import ensure_site, serve_site
-    site = ensure_site()
     out = {}
-    with serve_site(site) as base, sync_playwright() as p:
+    missed = {}
+    with contextlib.ExitStack() as stack, sync_playwright() as p:
+        bases = {label: stack.enter_context(serve_site(Path(d) if d else ensure_site()))
+                 for label, d in sites.items()}
         browser = p.chromium.launch(executable_path=CHROMIUM,
                                     args=["--no-sandbox", "--disable-gpu"])
         ctx = browser.new_context(viewport={"width": 800, "height": 1280})
         for calc in pages:
-            field, values = EDITS[calc]
-            page = ctx.new_page()
-            page.goto(f"{base.rstrip('/')}/{calc}.html")
-            page.wait_for_selector('body[data-engine="ready"]', state="attached",
-                                   timeout=120_000)
-            page.wait_for_selector('#result[data-state="live"]', state="attached",
-                                   timeout=120_000)
-            lat = []
-            for i in range(edits):
-                seq = int(page.get_attribute("#result", "data-result-seq") or 0)
-                page.fill(f"#f-{field}", values[i % len(values)])
-                page.wait_for_selector(f'#result[data-result-seq="{seq + 1}"]',
-                                       state="attached", timeout=60_000)
-                v = page.get_attribute("#result", "data-latency-ms")
-                if v is not None:
-                    lat.append(float(v))
-            out[f"{calc} page, input to DOM (Chromium)"] = lat
-            page.close()
+            field, value = EDITS[calc]
+            for label, base in bases.items():
+                page = ctx.new_page()
+                page.goto(f"{base.rstrip('/')}/{calc}.html")
+                page.wait_for_selector('body[data-engine="ready"]', state="attached",
+                                       timeout=120_000)
+                page.wait_for_selector('#result[data-state="live"]', state="attached",
+                                       timeout=120_000)
+                lat = []
+                for i in range(edits):
+                    seq = int(page.get_attribute("#result", "data-result-seq") or 0)
+                    page.fill(f"#f-{field}", value(i))
+                    try:
+                        page.wait_for_selector(f'#result[data-result-seq="{seq + 1}"]',
+                                               state="attached", timeout=60_000)
+                    except PlaywrightTimeout:
+                        missed[f"{calc} ({label})"] = missed.get(f"{calc} ({label})", 0) + 1
+                        continue
+                    v = page.get_attribute("#result", "data-latency-ms")
+                    if v is not None:
+                        lat.append(float(v))
+                out.setdefault(f"{calc} page, input to DOM (Chromium)", {})[label] = lat
+                page.close()
         browser.close()
+    for what, n in missed.items():
+        print(f"note: {n} edit(s) of the {what} page gave no new result within 60 s")
     return out
 
 
@@ -112,13 +141,28 @@ def main(argv=None):
     ap.add_argument("--edits", type=int, default=40)
     ap.add_argument("--pages", default="fastener,holiday,joint")
     ap.add_argument("--no-browser", action="store_true")
+    ap.add_argument("--site", default=None, help="a built site to time (default: site/)")
+    ap.add_argument("--before-site", default=None,
+                    help="another built site, timed in the same run and shown beside it")
     args = ap.parse_args(argv)
-    rows = cpython_timings()
+    rows = {k: {"this": v} for k, v in cpython_timings().items()}
+    sites = {"this": args.site}
+    if args.before_site:
+        sites = {"before": args.before_site, "this": args.site}
     if not args.no_browser:
-        rows.update(browser_timings(args.pages.split(","), args.edits))
-    print(f"{'what':48} {'n':>4} {'p50 ms':>8} {'p95 ms':>8}  target p95 ≤ 16 ms")
-    for name, ts in rows.items():
-        print(f"{name:48} {len(ts):4d} {statistics.median(ts):8.1f} {pct(ts, 95):8.1f}")
+        rows.update(browser_timings(args.pages.split(","), args.edits, sites))
+    head = f"{'what':48} {'n':>4} {'p50 ms':>8} {'p95 ms':>8}"
+    if args.before_site:
+        head += f" {'before p50':>11} {'before p95':>11} {'p95 ratio':>10}"
+    print(head + "  target p95 ≤ 16 ms")
+    for name, by in rows.items():
+        ts = by["this"]
+        line = f"{name:48} {len(ts):4d} {statistics.median(ts):8.1f} {pct(ts, 95):8.1f}"
+        if "before" in by:
+            b = by["before"]
+            line += (f" {statistics.median(b):11.1f} {pct(b, 95):11.1f} "
+                     f"{pct(ts, 95) / pct(b, 95):10.2f}")
+        print(line)
     return 0
 
 

@@ -1,13 +1,15 @@
 """Joint schedule benchmark: 1 000 rows through the browser engine.
 
     python3 bench/schedule_bench.py [--rows 1000] [--width 800] [--mix fastener|template]
+                                    [--site DIR]
 
 Run by hand, not by the test suite. Serves the built site/ on loopback,
 opens schedule.html in headless Debian Chromium (every other origin
 blocked), waits for the engine, pastes a schedule of N rows built from the
 template's joints (``--mix fastener``: its bolted joints only, the usual
 schedule; ``--mix template``: all its rows, a third of them coating-holiday
-checks, which cost several times more), repeated with varied counts and a
+checks, which cost several times more), repeated with varied counts, every
+row's wetted area a little different (no two rows are the same joint) and a
 few rows with mistakes, runs it and reports:
 
 * rows per second, as the page measures it (first chunk sent to the last
@@ -60,6 +62,11 @@ def schedule_text(n, mix="fastener"):
         cells[0] = f"J{i:04d} {cells[0]}"
         if cells[1] == "fastener":
             cells[7] = str(1 + i % 40)                      # count
+        # every row a different joint (a wetted area a little larger each row), so
+        # that no row is served from the core's memory of recent cases
+        area = 8 if cells[1] == "fastener" else 18          # plate_area / other_area
+        if cells[area]:
+            cells[area] = f"{cells[area]} * {1 + 1e-4 * i:.4f}"
         if i % 97 == 13:
             cells[3] = "kryptonite"                          # a mistake, kept in its row
         out.append(",".join(cells))
@@ -71,12 +78,13 @@ def main(argv=None):
     ap.add_argument("--rows", type=int, default=1000)
     ap.add_argument("--width", type=int, default=800)
     ap.add_argument("--mix", choices=("fastener", "template"), default="fastener")
+    ap.add_argument("--site", default=None, help="a built site to time (default: site/)")
     args = ap.parse_args(argv)
 
     from _site import ensure_site, serve_site
     from playwright.sync_api import sync_playwright
 
-    site = ensure_site()
+    site = Path(args.site) if args.site else ensure_site()
     text = schedule_text(args.rows, args.mix)
     with serve_site(site) as base, sync_playwright() as p:
         browser = p.chromium.launch(executable_path="/usr/bin/chromium",

@@ -83,8 +83,13 @@ def _internal(calc, raw, exc):
     })
 
 
-def run(calc, inputs=None):
+def run(calc, inputs=None, *, headline_only=False):
     """Run calculator ``calc`` on raw ``inputs`` (strings as typed, or numbers).
+
+    ``headline_only``: the calculator's compute-only path where it has one
+    (:attr:`noblegap.schema.Calculator.headline`): the same numbers, headline,
+    verdict and warnings, without alternatives, mitigations and charts (the
+    joint schedule's rows).
 
     Never raises, whatever it is given (a non-dict, bytes, nested values): a
     bad request comes back as an error naming the field to change.
@@ -100,12 +105,12 @@ def run(calc, inputs=None):
         ``error`` is :meth:`NoblegapError.to_dict`. No NaN or infinity.
     """
     try:
-        return _run(calc, inputs)
+        return _run(calc, inputs, headline_only)
     except Exception as exc:  # noqa: BLE001 - last line of defence, never a traceback
         return _internal(calc, {}, exc)
 
 
-def _run(calc, inputs):
+def _run(calc, inputs, headline_only=False):
     raw = {}
     if not isinstance(calc, str):
         err = ChoiceError(f"The calculator name must be text, got a {type(calc).__name__}.",
@@ -126,7 +131,9 @@ def _run(calc, inputs):
         token = units.set_system(display_system(calculator, inputs))
         raw = {k: _jsonable(v) for k, v in calculator.raw_inputs(inputs).items()}
         params, read_as, notes = calculator.read_all(inputs)
-        result = calculator.compute(**params)
+        compute = (calculator.headline if headline_only and calculator.headline else
+                   calculator.compute)
+        result = compute(**params)
         _add_read_notes(result, notes)
         return _clean({"ok": True, "calc": calc, "version": __version__,
                        "inputs": raw, "inputs_read": read_as, "result": result})

@@ -78,7 +78,8 @@ NUMBERS = (
 
 #: The columns appended to the user's table, in order.
 RESULT_COLUMNS = (("line", "result_line"), ("status", "result_status"),
-                  ("verdict", "result_verdict"), ("headline", "result_headline")) + tuple(
+                  ("verdict", "result_verdict"), ("headline", "result_headline"),
+                  ("weakest_source", "result_weakest_source")) + tuple(
     (key, f"result_{col}") for key, col in NUMBERS) + (
     ("errors", "result_errors"), ("warnings", "result_warnings"))
 
@@ -265,12 +266,18 @@ def _finite(x):
     return isinstance(x, (int, float)) and not isinstance(x, bool) and math.isfinite(x)
 
 
-def run_row(row):
-    """Run one parsed row; never raises. Returns the row's result dict."""
+def run_row(row, *, page=False):
+    """Run one parsed row; never raises. Returns the row's result dict.
+
+    A row takes the calculator's compute-only path (``api.run(...,
+    headline_only=True)``): the page's numbers, headline, weakest source, verdict
+    and warnings without alternatives, mitigations and charts. ``page=True`` runs
+    the whole page instead (the same row result; tests compare the two).
+    """
     out = {"line": row.get("line"), "id": row.get("id", ""), "calc": row.get("calc", ""),
            "cells": row.get("cells", {}), "status": STATUS_ERROR, "verdict": "",
-           "verdict_class": "", "headline": "", "numbers": {}, "errors": [],
-           "warnings": [], "inputs": {}}
+           "verdict_class": "", "headline": "", "weakest_source": "", "numbers": {},
+           "errors": [], "warnings": [], "inputs": {}}
     name = out["calc"]
     if not name:
         out["errors"] = [{"field": "calculator", "value": "", "message":
@@ -283,7 +290,7 @@ def run_row(row):
         out["errors"] = _flatten_error(exc.to_dict())
         return out
     inputs, errors = _row_inputs(row, calc)
-    result = api.run(name, inputs)
+    result = api.run(name, inputs, headline_only=not page)
     out["inputs"] = result.get("inputs", inputs)
     if not result.get("ok"):
         out["errors"] = errors + _flatten_error(result["error"])
@@ -295,6 +302,7 @@ def run_row(row):
     disp = res.get("display") or {}
     out["status"] = STATUS_OK
     out["headline"] = disp.get("headline", "")
+    out["weakest_source"] = (disp.get("headline_confidence") or {}).get("line", "")
     v = disp.get("verdict")
     if v and v.get("class"):
         out["verdict_class"] = v["class"]
@@ -359,7 +367,8 @@ def to_csv(results, columns=None):
     for r in results:
         cells = r.get("cells", {})
         extra = {"line": r.get("line", ""), "status": r["status"], "verdict": r["verdict"],
-                 "headline": r["headline"], "errors": _error_text(r["errors"]),
+                 "headline": r["headline"], "weakest_source": r.get("weakest_source", ""),
+                 "errors": _error_text(r["errors"]),
                  "warnings": " | ".join(r["warnings"])}
         for key, _ in NUMBERS:
             x = r["numbers"].get(key)

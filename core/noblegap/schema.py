@@ -299,6 +299,12 @@ class Calculator:
     example: dict = dc_field(default_factory=dict)
     intro: str = ""
     check: Callable | None = None
+    #: The compute-only path for many rows (a joint schedule): same parameters
+    #: as ``compute``, the same top-level numbers and the same display
+    #: headline, weakest source, verdict and warnings, without the parts only
+    #: a page shows (alternatives, mitigations, other scenarios, charts).
+    #: None: ``compute`` serves both.
+    headline: Callable | None = None
 
     def field_map(self):
         return {f.key: f for f in self.fields}

@@ -7,7 +7,13 @@ through an ``<img>`` data URL, where no script can run.
 
 from __future__ import annotations
 
+from functools import lru_cache
 from xml.sax.saxutils import escape, quoteattr
+
+
+@lru_cache(maxsize=None)
+def _name(key):
+    return key.rstrip("_").replace("_", "-")
 
 
 def _attrs(attrs):
@@ -15,10 +21,12 @@ def _attrs(attrs):
     for k, v in attrs.items():
         if v is None:
             continue
-        name = k.rstrip("_").replace("_", "-")
-        if isinstance(v, float):
-            v = f"{v:.2f}".rstrip("0").rstrip(".")
-        parts.append(f"{name}={quoteattr(str(v))}")
+        if isinstance(v, float):      # digits, sign and point: nothing to escape
+            parts.append(f'{_name(k)}="{f"{v:.2f}".rstrip("0").rstrip(".")}"')
+        elif isinstance(v, int) and not isinstance(v, bool):
+            parts.append(f'{_name(k)}="{v}"')
+        else:
+            parts.append(f"{_name(k)}={quoteattr(str(v))}")
     return " ".join(parts)
 
 

@@ -157,3 +157,62 @@ def test_cases_are_ordered_low_likely_high():
 def test_film_oxygen_limit_follows_ficks_law():
     # i_L = 4·F·D·c/h is inversely proportional to the film thickness
     assert galvanic.film_limit_A_m2(1e-5) == pytest.approx(10 * galvanic.film_limit_A_m2(1e-4))
+
+
+def test_one_law_in_the_solver_and_on_the_charts():
+    """The solver's net law (one closure) is the charts' dissolution − cathodic."""
+    for kw in (STEEL, BRONZE, ALUMINIUM, STAINLESS, dict(STAINLESS, E_b_V=None)):
+        e = el(**kw)
+        for k in range(-40, 41):
+            E = e.E_corr_V + 0.02 * k
+            assert e.net(E) == pytest.approx(e.dissolution(E) - e.cathodic(E), rel=1e-12,
+                                             abs=1e-15)
+
+
+@settings(max_examples=40, deadline=None)
+@given(A_a=st.floats(1e-6, 10.0), A_c=st.floats(1e-4, 100.0), R=st.floats(0.0, 1e4),
+       shift=st.floats(-0.3, 0.3))
+def test_a_guess_changes_only_the_work_not_the_answer(A_a, A_c, R, shift):
+    a, c = el(**STEEL), el(**BRONZE)
+    s = cell.solve(a, c, A_a, A_c, R)
+    g = cell.solve(a, c, A_a, A_c, R, guess_V=s.E_anode_V + shift)
+    assert g.E_anode_V == pytest.approx(s.E_anode_V, abs=1e-8)
+    assert g.E_cathode_V == pytest.approx(s.E_cathode_V, abs=1e-8)
+    assert g.current_A == pytest.approx(s.current_A, rel=1e-6, abs=1e-15)
+
+
+#: Cases where the damped spread steps cycle between a small and the whole
+#: member instead of settling (λ_new falls steeply with λ): 12 M10 carbon-steel
+#: bolts in a 1.375 m² 316 plate in seawater; 12 M10 N06625 bolts in a 316 plate,
+#: C1 atmosphere, high case.
+CYCLING = (("carbon_steel", "S31600", "seawater_flowing", 1.375, "likely"),
+           ("N06625", "S31600", "C1", 0.96, "high"))
+
+
+@pytest.mark.parametrize("fastener_id, plate_id, env, plate_m2, case", CYCLING)
+def test_spread_length_does_not_depend_on_the_number_of_damped_steps(
+        monkeypatch, fastener_id, plate_id, env, plate_m2, case):
+    from noblegap.calculators import fastener
+
+    def local(iterations):
+        monkeypatch.setattr(galvanic, "SPREAD_ITERATIONS", iterations)
+        a = galvanic.assess(fastener_id, plate_id, env,
+                            lambda r: fastener.layout(r, fastener_id, "bolt", 0.01, 12, None,
+                                                      plate_m2),
+                            allowance_of=lambda _a: (1e-3, None), cases=("likely", "high"))
+        return a["cases"][case]
+
+    runs = [local(n) for n in (11, 12, 13)]
+    for c in runs[1:]:
+        assert c["local_mm_per_yr"] == pytest.approx(runs[0]["local_mm_per_yr"],
+                                                     rel=2 * galvanic.SPREAD_TOLERANCE)
+    for c in runs:
+        # the effective area is the one within the reported spread length
+        lay = fastener.layout({"anode": fastener_id if c["A_anode_m2"] < 0.5 else plate_id,
+                               "cathode": None, "galvanic": True}, fastener_id, "bolt",
+                              0.01, 12, None, plate_m2)
+        lam = c["spread_m"]
+        if math.isfinite(lam):
+            within = 12 * lay.faces * 2 * math.pi * lam * (lay.site_radius_m + lam)
+            sur = c["A_cathode_eff_m2"] if lay.site_role == "anode" else c["A_anode_eff_m2"]
+            assert sur == pytest.approx(min(within, plate_m2), rel=1e-9)

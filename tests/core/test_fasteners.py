@@ -3,7 +3,7 @@
 import json
 
 import pytest
-from hypothesis import given, settings, strategies as st
+from hypothesis import example, given, settings, strategies as st
 
 from noblegap import api, verdicts
 from noblegap.calculators import fastener
@@ -136,6 +136,7 @@ def test_zero_or_negative_inputs_are_refused_with_the_field(field, value):
 @settings(max_examples=6, deadline=None)
 @given(area=st.floats(0.2, 5.0), extra=st.floats(0.1, 5.0),
        env=st.sampled_from(["seawater_flowing", "freshwater", "C5"]))
+@example(area=1.125, extra=0.25, env="seawater_flowing")   # the spread steps used to cycle
 def test_larger_cathode_plate_never_lowers_a_fastener_anode_rate(area, extra, env):
     a = run(fastener="carbon_steel", plate="S31600", plate_area=f"{area} m²", environment=env)
     b = run(fastener="carbon_steel", plate="S31600", plate_area=f"{area + extra} m²",

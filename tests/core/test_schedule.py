@@ -183,3 +183,59 @@ def test_parse_memo_gives_the_same_values_and_never_remembers_an_error():
     for _ in range(2):
         with pytest.raises(InputErrors, match="a mass, not a length"):
             calc.parse({"diameter": "3 kg"})
+
+
+#: Rows of each galvanic calculator for the compute-only path: several alloys,
+#: immersion and atmospheres, each anode role, holidays on each side.
+HEADLINE_ROWS = (
+    ("fastener", {}),
+    ("fastener", {"fastener": "carbon steel", "plate": "316", "environment": "seawater_flowing",
+                  "count": "40", "plate_area": "1.375 m²"}),
+    ("fastener", {"fastener": "galvanized steel", "plate": "C95800",
+                  "environment": "freshwater"}),
+    ("fastener", {"fastener": "5083", "plate": "6061", "environment": "C3",
+                  "diameter": "3/8 in", "allowance": "0.5 mm"}),
+    ("fastener", {"fastener": "316", "plate": "316", "environment": "C5"}),
+    ("joint", {}),
+    ("joint", {"first": "carbon steel", "second": "C95800", "environment": "seawater_quiescent",
+               "first_area": "50 m²", "second_area": "0.2 m²", "distance": "50 mm"}),
+    ("joint", {"first": "6061", "second": "carbon steel", "environment": "CX",
+               "resistivity": "2 ohm*m"}),
+    ("holiday", {}),
+    ("holiday", {"coated_side": "cathode", "coated": "nickel-aluminium bronze",
+                 "other": "carbon steel", "environment": "seawater_flowing"}),
+    ("holiday", {"coated_side": "both", "environment": "C4"}),
+    ("holiday", {"coated_side": "none", "holiday_count": "", "holiday_diameter": "",
+                 "inspected_area": "", "coating_category": "none"}),
+    ("holiday", {"holiday_count": "0"}),
+)
+
+
+@pytest.mark.parametrize("calc, change", HEADLINE_ROWS)
+def test_compute_only_rows_give_the_pages_headline(calc, change):
+    """A schedule row (compute-only path) carries exactly the page's verdict,
+    headline, weakest source, warnings and numbers."""
+    inputs = {**api.get(calc).example, **change}
+    row = {"line": 2, "id": "J", "calc": calc, "cells": inputs}
+    fast, page = schedule.run_row(row), schedule.run_row(row, page=True)
+    assert fast["status"] == page["status"] == schedule.STATUS_OK, fast["errors"]
+    assert fast == page
+    assert fast["weakest_source"].startswith("Weakest source behind this result")
+    # and the numbers are the page's own
+    full = api.run(calc, inputs)["result"]
+    assert fast["numbers"] == {k: full[k] for k, _ in schedule.NUMBERS
+                               if isinstance(full.get(k), float) or
+                               isinstance(full.get(k), int)}
+    assert fast["headline"] == full["display"]["headline"]
+    assert fast["verdict_class"] == full["verdict_class"]
+
+
+def test_compute_only_path_leaves_out_only_the_page_parts():
+    ex = api.get("fastener").example
+    fast = api.run("fastener", ex, headline_only=True)["result"]
+    page = api.run("fastener", ex)["result"]
+    assert page["alternatives"] and page["mitigations"] and page["display"]["charts"]
+    assert fast["alternatives"] is None and fast["mitigations"] is None
+    assert fast["display"]["charts"] == [] and fast["display"]["tables"] == []
+    assert fast["display"]["headline_confidence"] == page["display"]["headline_confidence"]
+    assert fast["display"]["warnings"] == page["display"]["warnings"]

@@ -144,8 +144,9 @@ def evaluate(fastener, plate, environment, *, fastener_kind, diameter, count,
 
 def compute_numbers(fastener, plate, environment, fastener_kind, diameter, count,
                     fastener_area, plate_area, thickness, allowance, design_life,
-                    conductivity, resistivity):
-    """Numbers of the fastener check: the joint, alternatives, mitigations."""
+                    conductivity, resistivity, *, page=True):
+    """Numbers of the fastener check: the joint, alternatives, mitigations
+    (``page=False``: the joint only, for a schedule's row)."""
     kappa = members.conductivity_from(conductivity, resistivity)
     geometry = dict(fastener_kind=fastener_kind, diameter=diameter, count=count,
                     fastener_area=fastener_area, plate_area=plate_area, thickness=thickness,
@@ -160,9 +161,9 @@ def compute_numbers(fastener, plate, environment, fastener_kind, diameter, count
     a = evaluate(fastener, plate, environment, **geometry)
     alts = members.alternatives(lambda fid, **o: evaluate(fid, plate, environment, **geometry,
                                                            **o),
-                                fastener)
+                                fastener) if page else None
     mits = members.mitigations(lambda **o: evaluate(fastener, plate, environment,
-                                                    **geometry, **o))
+                                                    **geometry, **o)) if page else None
     out = members.result_numbers(a)
     out.update({"fastener": fastener, "plate": plate,
                 "anode_member": ("fastener" if a["anode"] == fastener and a["galvanic"]
@@ -173,8 +174,9 @@ def compute_numbers(fastener, plate, environment, fastener_kind, diameter, count
     return out
 
 
-def report(n):
-    """The page text and charts from :func:`compute_numbers`' numbers."""
+def report(n, page=True):
+    """The page text and charts from :func:`compute_numbers`' numbers
+    (``page=False``: without the alternatives, mitigations and charts)."""
     a = n["_assessment"]
     lk = a["likely"]
     rep = Report()
@@ -205,6 +207,8 @@ def report(n):
             f"computed (approximation): {KINDS[n['fastener_kind']]['proportions']}",
             key="fastener_area")
     members.common_rows(rep, a, n["_conductivity_entered"])
+    if not page:
+        return rep
     members.alternatives_table(rep, n["alternatives"], "Better fasteners for this plate here",
                                "fastener")
     members.mitigations_table(rep, n["mitigations"])
@@ -227,18 +231,32 @@ def report(n):
     return rep
 
 
+def _result(params, page):
+    n = compute_numbers(**params, page=page)
+    n["_conductivity_entered"] = (params["conductivity"] is not None
+                                  or params["resistivity"] is not None)
+    rep = report(n, page=page)
+    out = {k: v for k, v in n.items() if not k.startswith("_")}
+    out["display"] = rep.to_dict()
+    return out
+
+
 def compute_fastener(fastener, plate, environment, fastener_kind, diameter, count,
                      fastener_area, plate_area, thickness, allowance, design_life,
                      conductivity, resistivity):
     """Parse → compute → report for the page: numbers plus ``display``."""
-    n = compute_numbers(fastener, plate, environment, fastener_kind, diameter, count,
-                        fastener_area, plate_area, thickness, allowance, design_life,
-                        conductivity, resistivity)
-    n["_conductivity_entered"] = conductivity is not None or resistivity is not None
-    rep = report(n)
-    out = {k: v for k, v in n.items() if not k.startswith("_")}
-    out["display"] = rep.to_dict()
-    return out
+    return _result(dict(fastener=fastener, plate=plate, environment=environment,
+                        fastener_kind=fastener_kind, diameter=diameter, count=count,
+                        fastener_area=fastener_area, plate_area=plate_area,
+                        thickness=thickness, allowance=allowance, design_life=design_life,
+                        conductivity=conductivity, resistivity=resistivity), page=True)
+
+
+def headline_fastener(**params):
+    """The compute-only path of a schedule's row: :func:`compute_fastener`'s
+    numbers, headline, verdict and warnings without alternatives, mitigations
+    and charts."""
+    return _result(params, page=False)
 
 
 def _kind_choices():
@@ -295,6 +313,7 @@ CALCULATORS = [
                   range_note="Between 0 and 1000 years.", **_POS),
         ] + members.electrolyte_fields(),
         compute=compute_fastener,
+        headline=headline_fastener,
         example={"fastener": "316 stainless", "plate": "5083", "environment": "CX",
                  "fastener_kind": "bolt", "diameter": "10 mm", "count": "12",
                  "fastener_area": "", "plate_area": "1.2 m * 0.8 m", "thickness": "6 mm",

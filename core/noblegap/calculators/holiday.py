@@ -233,8 +233,12 @@ def years_from_timeline(points, allowance_mm):
 def compute_numbers(coated, other, environment, coated_side, holiday_count, inspected_area,
                     holiday_diameter, exposed_area, coating_category, breakdown_a,
                     breakdown_b, coated_area, other_area, thickness, allowance, design_life,
-                    coating_thickness, conductivity, resistivity):
-    """Numbers of the holiday check (SI floats in; rates in mm/yr, times in years)."""
+                    coating_thickness, conductivity, resistivity, *, page=True):
+    """Numbers of the holiday check (SI floats in; rates in mm/yr, times in years).
+
+    ``page=False`` (a schedule's row): the highlighted scenario only, without the
+    other three choices, the single-holiday comparison and the fall-off.
+    """
     tf = design_life / YEAR_S
     if not tf > 0:
         raise RangeError("The design life must be longer than zero.", field="design_life",
@@ -269,7 +273,7 @@ def compute_numbers(coated, other, environment, coated_side, holiday_count, insp
         conductivity_S_m=kappa, allowance_of=lambda _a: (allow, None),
         design_life_yr=tf, isolated=no_metal)
     scen = {}
-    for side in SIDES:
+    for side in (SIDES if page else (coated_side,)):
         pts = []
         for k in TIMELINE:
             t = k * tf
@@ -285,8 +289,8 @@ def compute_numbers(coated, other, environment, coated_side, holiday_count, insp
                       "rate_design_life_mm_per_yr": pts[-1][1],
                       "years_to_allowance": years,
                       "penetration_at_design_life_mm": _integral(pts)}
-    ranking = sorted(SIDES, key=lambda s: (-(scen[s]["years_to_allowance"] or math.inf),
-                                           scen[s]["penetration_at_design_life_mm"]))
+    ranking = sorted(scen, key=lambda s: (-(scen[s]["years_to_allowance"] or math.inf),
+                                          scen[s]["penetration_at_design_life_mm"]))
     # one years-to-allowance for the highlighted scenario, low/likely/high
     y_likely = scen[coated_side]["years_to_allowance"]
     r0 = sel["likely"]["local_mm_per_yr"]
@@ -311,7 +315,8 @@ def compute_numbers(coated, other, environment, coated_side, holiday_count, insp
     # area, never scaled by coated ÷ inspected area)
     single = None
     insp = info["inspection"]
-    if coated_is_anode and insp and insp.get("form") == "count" and insp["holiday_count"] >= 1:
+    if (page and coated_is_anode and insp and insp.get("form") == "count"
+            and insp["holiday_count"] >= 1):
         n_all = holidays_on(A_an, frac(0.0), insp["holiday_diameter_m"])
         r_many = _likely_rate(an, ca, environment,
                               layout("anode", frac(0.0), A_an, A_ca, insp["holiday_diameter_m"]),
@@ -324,7 +329,7 @@ def compute_numbers(coated, other, environment, coated_side, holiday_count, insp
 
     # distance fall-off: one holiday at distance x from the cathode's edge
     falloff = []
-    if not no_metal and lay0.site_role == "anode" and sel["galvanic"]:
+    if page and not no_metal and lay0.site_role == "anode" and sel["galvanic"]:
         for x_mm in (0, 10, 30, 100, 300, 1000, 3000):
             lay_x = galvanic.Layout("anode", 1, math.pi * d * d / 4, lay0.surround_area_m2,
                                     d / 2, 1, x_mm / 1000.0, surrounds=False)
@@ -343,8 +348,8 @@ def compute_numbers(coated, other, environment, coated_side, holiday_count, insp
         "holiday_fraction_measured": insp["fraction"] if insp else None,
         "anode_area_m2": A_an, "cathode_area_m2": A_ca,
         "no_exposed_anode": no_metal,
-        "scenarios": [{k: v for k, v in scen[s].items()} for s in SIDES],
-        "ranking": ranking, "best_side": ranking[0],
+        "scenarios": [{k: v for k, v in scen[s].items()} for s in SIDES if s in scen],
+        "ranking": ranking if page else None, "best_side": ranking[0] if page else None,
         "single_holiday": single, "falloff": falloff,
         "test_method": test["test_method"] if test else None,
         "test_method_name": test["test_method_name"] if test else None,
@@ -379,7 +384,9 @@ def recommendation(n):
     return s
 
 
-def report(n):
+def report(n, page=True):
+    """The page's words and charts (``page=False``: headline, verdict, rows and
+    warnings only, from :func:`compute_numbers` with ``page=False``)."""
     a = n["_assessment"]
     rep = Report()
     side = n["coated_side"]
@@ -411,7 +418,8 @@ def report(n):
     wet = members.wet_sentence(a)
     if wet:
         rep.para(wet)
-    rep.para(recommendation(n))
+    if page:
+        rep.para(recommendation(n))
     if n["single_holiday"]:
         s = n["single_holiday"]
         rep.para(f"One holiday alone against the same cathode: "
@@ -451,6 +459,8 @@ def report(n):
         rep.note("Holiday-test settings here are screening values: the coating "
                  "manufacturer's and the governing local specification's values govern. "
                  "Too high a voltage can damage a sound film.")
+    if not page:
+        return rep
     rep.table("The four choices", ["choice", "rate now, mm/yr", "rate at design life, mm/yr",
                                    "years to use the allowance", "rank"],
               [[SIDE_LABELS[s["side"]] + (" — highlighted" if s["side"] == side else ""),
@@ -486,23 +496,41 @@ def report(n):
     return rep
 
 
+def _result(params, page):
+    if params["coated_side"] not in SIDES:
+        raise InputError(f"Unknown coated side {params['coated_side']!r}.",
+                         field="coated_side", value=params["coated_side"],
+                         allowed=", ".join(SIDES))
+    n = compute_numbers(**params, page=page)
+    n["_conductivity_entered"] = (params["conductivity"] is not None
+                                  or params["resistivity"] is not None)
+    rep = report(n, page=page)
+    out = {k: v for k, v in n.items() if not k.startswith("_")}
+    out["display"] = rep.to_dict()
+    return out
+
+
 def compute_holiday(coated, other, environment, coated_side, holiday_count, inspected_area,
                     holiday_diameter, exposed_area, coating_category, breakdown_a,
                     breakdown_b, coated_area, other_area, thickness, allowance, design_life,
                     coating_thickness, conductivity, resistivity):
     """Parse → compute → report for the page: numbers plus ``display``."""
-    if coated_side not in SIDES:
-        raise InputError(f"Unknown coated side {coated_side!r}.", field="coated_side",
-                         value=coated_side, allowed=", ".join(SIDES))
-    n = compute_numbers(coated, other, environment, coated_side, holiday_count,
-                        inspected_area, holiday_diameter, exposed_area, coating_category,
-                        breakdown_a, breakdown_b, coated_area, other_area, thickness,
-                        allowance, design_life, coating_thickness, conductivity, resistivity)
-    n["_conductivity_entered"] = conductivity is not None or resistivity is not None
-    rep = report(n)
-    out = {k: v for k, v in n.items() if not k.startswith("_")}
-    out["display"] = rep.to_dict()
-    return out
+    return _result(dict(coated=coated, other=other, environment=environment,
+                        coated_side=coated_side, holiday_count=holiday_count,
+                        inspected_area=inspected_area, holiday_diameter=holiday_diameter,
+                        exposed_area=exposed_area, coating_category=coating_category,
+                        breakdown_a=breakdown_a, breakdown_b=breakdown_b,
+                        coated_area=coated_area, other_area=other_area, thickness=thickness,
+                        allowance=allowance, design_life=design_life,
+                        coating_thickness=coating_thickness, conductivity=conductivity,
+                        resistivity=resistivity), page=True)
+
+
+def headline_holiday(**params):
+    """The compute-only path of a schedule's row: :func:`compute_holiday`'s
+    numbers, headline, verdict and warnings for the highlighted choice, without
+    the other three choices, the single-holiday comparison and the charts."""
+    return _result(params, page=False)
 
 
 def _category_choices():
@@ -581,6 +609,7 @@ CALCULATORS = [
                   group="Inspector", help="Total dry film, for the holiday-test helper."),
         ] + members.electrolyte_fields(),
         compute=compute_holiday,
+        headline=headline_holiday,
         example={
             "coated": "carbon steel", "other": "nickel-aluminium bronze",
             "environment": "seawater_quiescent", "coated_side": "anode",

@@ -60,9 +60,9 @@ def evaluate(first, second, environment, *, first_area, second_area, first_thick
 
 def compute_numbers(first, first_area, first_thickness, second, second_area,
                     second_thickness, environment, distance, allowance, design_life,
-                    conductivity, resistivity):
+                    conductivity, resistivity, *, page=True):
     """Numbers of the joint check: the couple, alternatives for the second member,
-    mitigations."""
+    mitigations (``page=False``: the couple only, for a schedule's row)."""
     kappa = members.conductivity_from(conductivity, resistivity)
     geometry = dict(first_area=first_area, second_area=second_area,
                     first_thickness=first_thickness, second_thickness=second_thickness,
@@ -71,9 +71,10 @@ def compute_numbers(first, first_area, first_thickness, second, second_area,
                     conductivity_S_m=kappa)
     a = evaluate(first, second, environment, **geometry)
     alts = members.alternatives(
-        lambda aid, **o: evaluate(first, aid, environment, **geometry, **o), second)
+        lambda aid, **o: evaluate(first, aid, environment, **geometry, **o), second) \
+        if page else None
     mits = members.mitigations(lambda **o: evaluate(first, second, environment, **geometry,
-                                                    **o))
+                                                    **o)) if page else None
     out = members.result_numbers(a)
     out.update({"first": first, "second": second,
                 "anode_member": "first" if a["anode"] == first else "second",
@@ -82,8 +83,9 @@ def compute_numbers(first, first_area, first_thickness, second, second_area,
     return out
 
 
-def report(n):
-    """The page text and charts from :func:`compute_numbers`' numbers."""
+def report(n, page=True):
+    """The page text and charts from :func:`compute_numbers`' numbers
+    (``page=False``: without the alternatives, mitigations and charts)."""
     a = n["_assessment"]
     lk = a["likely"]
     rep = Report()
@@ -110,6 +112,8 @@ def report(n):
     rep.row("Distance between the members", "in contact" if n["distance_m"] is None else
             units.fmt(n["distance_m"] * 1000, "mm", 3), "as entered", key="distance")
     members.common_rows(rep, a, n["_conductivity_entered"])
+    if not page:
+        return rep
     members.alternatives_table(rep, n["alternatives"],
                                "Other alloys for the second member here", "second member")
     members.mitigations_table(rep, n["mitigations"])
@@ -130,17 +134,30 @@ def report(n):
     return rep
 
 
-def compute_joint(first, first_area, first_thickness, second, second_area, second_thickness,
-                  environment, distance, allowance, design_life, conductivity, resistivity):
-    """Parse → compute → report for the page: numbers plus ``display``."""
-    n = compute_numbers(first, first_area, first_thickness, second, second_area,
-                        second_thickness, environment, distance, allowance, design_life,
-                        conductivity, resistivity)
-    n["_conductivity_entered"] = conductivity is not None or resistivity is not None
-    rep = report(n)
+def _result(params, page):
+    n = compute_numbers(**params, page=page)
+    n["_conductivity_entered"] = (params["conductivity"] is not None
+                                  or params["resistivity"] is not None)
+    rep = report(n, page=page)
     out = {k: v for k, v in n.items() if not k.startswith("_")}
     out["display"] = rep.to_dict()
     return out
+
+
+def compute_joint(first, first_area, first_thickness, second, second_area, second_thickness,
+                  environment, distance, allowance, design_life, conductivity, resistivity):
+    """Parse → compute → report for the page: numbers plus ``display``."""
+    return _result(dict(first=first, first_area=first_area, first_thickness=first_thickness,
+                        second=second, second_area=second_area,
+                        second_thickness=second_thickness, environment=environment,
+                        distance=distance, allowance=allowance, design_life=design_life,
+                        conductivity=conductivity, resistivity=resistivity), page=True)
+
+
+def headline_joint(**params):
+    """The compute-only path of a schedule's row: :func:`compute_joint`'s numbers,
+    headline, verdict and warnings without alternatives, mitigations and charts."""
+    return _result(params, page=False)
 
 
 def _check(p):
@@ -192,6 +209,7 @@ CALCULATORS = [
                   range_note="Between 0 and 1000 years.", **_POS),
         ] + members.electrolyte_fields(),
         compute=compute_joint,
+        headline=headline_joint,
         check=_check,
         example={"first": "galvanized steel", "first_area": "0.5 m²", "first_thickness": "4 mm",
                  "second": "316 stainless", "second_area": "0.02 m²",

@@ -33,10 +33,15 @@ resistance R between the two wetted surfaces:
 
     A_a · n_a(E_a) = I = −A_c · n_c(E_c),      E_c − E_a = I · R
 
-One bracketed bisection on E_a ∈ [E_corr,a, E_corr,c]: for a trial E_a the
+One bracketed root on E_a ∈ [E_corr,a, E_corr,c]: for a trial E_a the
 anode gives I, the ohmic drop gives E_c, and the cathode's balance
 h(E_a) = −A_c·n_c(E_a + I·R) − I falls strictly with E_a, from ≥ 0 at
 E_corr,a to ≤ 0 at E_corr,c. So the root is unique and always found.
+Brent's method (inverse quadratic and secant steps, bisection whenever they
+do not shrink the bracket fast enough) keeps it bracketed until both
+electrode potentials are pinned to ``tol_V``; the last step interpolates h
+on the final bracket. A guess (the previous solution of a nearby cell, as in
+the spread iteration) starts from a small bracket around it.
 
 The driving voltage divides into the anode's polarization η_a = E_a − E_corr,a,
 the ohmic drop I·R and the cathode's polarization η_c = E_corr,c − E_c; the
@@ -109,6 +114,45 @@ def _exp(x):
     return math.exp(x)
 
 
+def _net_law(i_corr, E_corr, ka, kc, ix, i_L, start, passive, i0_H, E_H, kH, H0):
+    """The net current density n(E) of one electrode as one closure.
+
+    The same three laws as :meth:`Electrode.dissolution`, :meth:`Electrode.oxygen`
+    and :meth:`Electrode.hydrogen` (tests/core/test_cell.py checks that they
+    agree), written out once without method calls: the cell solver evaluates it
+    some ten thousand times per page.
+    """
+    exp, M = math.exp, _MAX_LN
+    flat = passive and start is None
+    if i0_H > 0:
+        def net(E):
+            x = (E - E_corr)
+            if flat or (passive and E <= start):
+                d = i_corr
+            else:
+                z = (E - start) * ka if passive else x * ka
+                d = i_corr * exp(z if -M < z < M else (M if z > 0 else -M))
+            y = -x * kc
+            act = ix * exp(y if -M < y < M else (M if y > 0 else -M))
+            c = act / (1.0 + act / i_L)
+            if x < 0:
+                z = -(E - E_H) * kH
+                c += i0_H * exp(z if -M < z < M else (M if z > 0 else -M)) - H0
+            return d - c
+    else:
+        def net(E):
+            x = (E - E_corr)
+            if flat or (passive and E <= start):
+                d = i_corr
+            else:
+                z = (E - start) * ka if passive else x * ka
+                d = i_corr * exp(z if -M < z < M else (M if z > 0 else -M))
+            y = -x * kc
+            act = ix * exp(y if -M < y < M else (M if y > 0 else -M))
+            return d - act / (1.0 + act / i_L)
+    return net
+
+
 @dataclass(frozen=True)
 class Electrode:
     """Polarization laws of one wetted member (SI floats, potentials on one scale).
@@ -175,6 +219,9 @@ class Electrode:
         set_(self, "_kH", kH)
         set_(self, "_H0", self.i0_H_A_m2 * _exp(-(self.E_corr_V - self.E_H_V) * kH)
              if self.i0_H_A_m2 > 0 else 0.0)
+        set_(self, "_net", _net_law(self.i_corr_A_m2, self.E_corr_V, self._ka, self._kc,
+                                    self._ix, self.i_L_A_m2, start, self.passive,
+                                    self.i0_H_A_m2, self.E_H_V, kH, self._H0))
 
     # -- the three reactions -------------------------------------------
     def dissolution(self, E):
@@ -200,8 +247,8 @@ class Electrode:
         return self.oxygen(E) + self.hydrogen(E)
 
     def net(self, E):
-        """Net current density, anodic positive [A/m²]."""
-        return self.dissolution(E) - self.cathodic(E)
+        """Net current density, anodic positive [A/m²]: dissolution − cathodic."""
+        return self._net(E)
 
     def slope_ohm_m2(self, E, dE=1e-4):
         """Polarization resistance r_p = dE/dn at E [Ω·m²] (central difference)."""
@@ -238,7 +285,8 @@ class Solution:
         return LIMITS[self.limit]
 
 
-def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-6, max_iter=200):
+def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-9, max_iter=200,
+          guess_V=None, step_V=3e-3):
     """Galvanic current and electrode potentials of a two-member cell.
 
     Parameters
@@ -250,6 +298,15 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-6, max_it
     R_ohm : float
         Electrolyte resistance between the two surfaces [Ω], ≥ 0 (math.inf:
         no ionic path).
+    tol_V : float
+        Both electrode potentials are bracketed to this [V] before the last
+        interpolation.
+    guess_V : float, optional
+        A likely anode potential [V] (a nearby cell's solution); the result
+        is the same to within ``tol_V``, found with fewer evaluations.
+    step_V : float
+        How far from ``guess_V`` the root likely lies [V]: the first bracket's
+        width (widened eightfold at a time until it holds the root).
 
     Returns
     -------
@@ -264,6 +321,9 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-6, max_it
     True
     >>> s.limit
     'resistance'
+    >>> abs(solve(st, br, 1e-4, 10.0, 10.0, guess_V=s.E_anode_V + 0.01).current_A
+    ...     - s.current_A) < 1e-9 * s.current_A
+    True
     """
     if not A_anode_m2 > 0:
         raise InputError("The anode needs a wetted area.", field="A_anode_m2",
@@ -277,30 +337,8 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-6, max_it
     if driving <= 0 or A_cathode_m2 == 0 or math.isinf(R_ohm):
         return Solution(0.0, lo, hi, own, 0.0, own, 0.0, 0.0, 0.0, 0.0, max(driving, 0.0),
                         LIMIT_NONE, 0.0)
-
-    def current(Ea):
-        return A_anode_m2 * max(anode.net(Ea), 0.0)
-
-    def h(Ea):
-        I = current(Ea)
-        return -A_cathode_m2 * cathode.net(Ea + I * R_ohm) - I
-
-    it = 0
-    # stop when both electrode potentials are bracketed to tol_V: E_a directly, and
-    # E_c = E_a + I·R, which a large R makes far more sensitive to E_a
-    while it < max_iter and (hi - lo > tol_V or
-                             (current(hi) - current(lo)) * R_ohm > tol_V):
-        mid = 0.5 * (lo + hi)
-        if h(mid) > 0:
-            lo = mid
-        else:
-            hi = mid
-        it += 1
-    # last step: interpolate h on the final bracket (the current is steep in E_a
-    # when most of the voltage is ohmic, so the midpoint alone would leave I·R off)
-    h_lo, h_hi = h(lo), h(hi)
-    Ea = lo + (hi - lo) * h_lo / (h_lo - h_hi) if h_lo > 0 > h_hi else 0.5 * (lo + hi)
-    I = current(Ea)
+    Ea, I = _root(anode._net, cathode._net, A_anode_m2, A_cathode_m2, R_ohm, lo, hi,
+                  tol_V, max_iter, guess_V, max(step_V, 10.0 * tol_V))
     Ec = min(Ea + I * R_ohm, cathode.E_corr_V)
     i_d = anode.dissolution(Ea)
     i_g = I / A_anode_m2
@@ -313,6 +351,98 @@ def solve(anode, cathode, A_anode_m2, A_cathode_m2, R_ohm, *, tol_V=1e-6, max_it
     limit = max(parts, key=parts.get)
     return Solution(I, Ea, Ec, i_d, i_g, max(i_d - i_g, 0.0), i_c, eta_a, eta_c, ohmic,
                     driving, limit, frac)
+
+
+def _root(net_a, net_c, A_a, A_c, R, lo, hi, tol_V, max_iter, guess, step):
+    """(E_a, I) where h(E_a) = −A_c·n_c(E_a + I·R) − I = 0, I = A_a·max(n_a(E_a), 0).
+
+    Brent's method on the bracket [lo, hi] (h(lo) ≥ 0 ≥ h(hi)). It stops when
+    both E_a and E_c = E_a + I·R are bracketed to ``tol_V`` and interpolates h
+    on the final bracket (near an ohmic limit the current is steep in E_a, so
+    the bracket's midpoint alone would leave I·R off).
+    """
+    def h(Ea):
+        n = net_a(Ea)
+        I = A_a * n if n > 0.0 else 0.0
+        return -A_c * net_c(Ea + I * R) - I, I
+
+    # the bracket: [lo, hi], or a small one around a guess, widened until it holds
+    a = None
+    if guess is not None and lo < guess < hi:
+        g, (fg, Ig) = guess, h(guess)
+        if fg > 0:                       # root above the guess
+            a, fa, Ia = g, fg, Ig
+            while True:
+                x = g + step
+                if x >= hi:
+                    b, (fb, Ib) = hi, h(hi)
+                    break
+                fb, Ib = h(x)
+                b = x
+                if fb <= 0:
+                    break
+                a, fa, Ia = x, fb, Ib
+                step *= 8.0
+        else:                            # root at or below the guess
+            b, fb, Ib = g, fg, Ig
+            while True:
+                x = g - step
+                if x <= lo:
+                    a, (fa, Ia) = lo, h(lo)
+                    break
+                fa, Ia = h(x)
+                a = x
+                if fa > 0:
+                    break
+                b, fb, Ib = x, fa, Ia
+                step *= 8.0
+    if a is None:
+        a, (fa, Ia) = lo, h(lo)
+        b, (fb, Ib) = hi, h(hi)
+    # Brent (zeroin): b is the best estimate, [b, c] brackets the root
+    c, fc, Ic = a, fa, Ia
+    d = e = b - a
+    for _ in range(max_iter):
+        if (fb > 0) == (fc > 0):
+            c, fc, Ic = a, fa, Ia
+            d = e = b - a
+        if abs(fc) < abs(fb):
+            a, fa, Ia = b, fb, Ib
+            b, fb, Ib = c, fc, Ic
+            c, fc, Ic = a, fa, Ia
+        w = abs(c - b)
+        if fb == 0 or (w <= tol_V and abs(Ic - Ib) * R <= tol_V):
+            break
+        # a step in E_a moves E_c by (1 + R·dI/dE_a) times as much
+        tol1 = 0.5 * tol_V / (1.0 + R * abs(Ic - Ib) / w)
+        m = 0.5 * (c - b)
+        if abs(e) >= tol1 and abs(fa) > abs(fb):
+            s = fb / fa
+            if a == c:
+                p, q = 2.0 * m * s, 1.0 - s
+            else:
+                q, r = fa / fc, fb / fc
+                p = s * (2.0 * m * q * (q - r) - (b - a) * (r - 1.0))
+                q = (q - 1.0) * (r - 1.0) * (s - 1.0)
+            if p > 0:
+                q = -q
+            else:
+                p = -p
+            if 2.0 * p < min(3.0 * m * q - abs(tol1 * q), abs(e * q)):
+                e, d = d, p / q
+            else:
+                d = e = m
+        else:
+            d = e = m
+        a, fa, Ia = b, fb, Ib
+        b += d if abs(d) > tol1 else (tol1 if m > 0 else -tol1)
+        fb, Ib = h(b)
+    if fb == 0:
+        return b, Ib
+    x0, f0, x1, f1 = (b, fb, c, fc) if b < c else (c, fc, b, fb)
+    Ea = x0 + (x1 - x0) * f0 / (f0 - f1) if f0 > 0 > f1 else 0.5 * (x0 + x1)
+    n = net_a(Ea)
+    return Ea, (A_a * n if n > 0.0 else 0.0)
 
 
 def softness_V(electrode, E):

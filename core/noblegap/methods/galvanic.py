@@ -126,8 +126,10 @@ def film_limit_A_m2(film_m):
     return 4.0 * _faraday() * O2_DIFFUSIVITY_M2_S * O2_CONCENTRATION_MOL_M3 / film_m
 
 
+@lru_cache(maxsize=256)
 def electrolyte_case(env_id, case, conductivity_S_m=None):
-    """Conductivity, oxygen limit, film and wet fraction of one case.
+    """Conductivity, oxygen limit, film and wet fraction of one case (read-only:
+    the tables do not change while the core runs, so each case is read once).
 
     Returns
     -------
@@ -162,8 +164,10 @@ def electrolyte_case(env_id, case, conductivity_S_m=None):
     return out
 
 
+@lru_cache(maxsize=512)
 def electrode(alloy_id, E_corr_V, case, i_L_A_m2):
-    """:class:`cell.Electrode` of an alloy from ``data/cell_kinetics.csv``.
+    """:class:`cell.Electrode` of an alloy from ``data/cell_kinetics.csv`` (an
+    immutable value, built once per set of arguments).
 
     ``case`` picks the own corrosion (passive) current density: high for the
     anode's high case. The own current density is kept below i_L.
@@ -260,7 +264,18 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
         ``A_cathode_eff_m2``, ``A_anode_m2`` (wetted total), ``R_ohm``,
         ``spread_m`` (λ on the surround member, math.inf when unbounded),
         ``ohmic_limit_A`` (ΔV/R, the current with no polarization at all).
+        Read-only: the same inputs return the same dict (a page asks for the
+        same case more than once: the current alloy among the alternatives,
+        a bare couple at every point of a coating's life, an edit of the life
+        or the allowance alone).
     """
+    return _solve_case(anode_el, cathode_el, layout, elec["rho_ohm_m"], elec["film_m"],
+                       isolated, R_extra_ohm, coat_anode, coat_cathode)
+
+
+@lru_cache(maxsize=512)
+def _solve_case(anode_el, cathode_el, layout, rho, film, isolated, R_extra_ohm, coat_anode,
+                coat_cathode):
     A_an, A_ca = layout.areas()
     A_an *= (1.0 - coat_anode)
     A_ca *= (1.0 - coat_cathode)
@@ -271,41 +286,103 @@ def solve_case(anode_el, cathode_el, layout, elec, *, isolated=False, R_extra_oh
                  A_an if layout.site_role == "anode" else A_ca,
                  A_ca if layout.site_role == "anode" else A_an,
                  layout.site_radius_m, layout.faces, layout.distance_m, layout.surrounds)
-    rho, film = elec["rho_ohm_m"], elec["film_m"]
     # λ beyond the member's own size changes nothing: cap it there, start there,
     # and damp the fixed point in log space (geometric mean of old and new). The
     # fixed point need not be unique (a cathode near its free potential is "stiff",
     # on its oxygen plateau "soft"); starting from the whole member and damping
     # finds the one with the larger area, which keeps "a larger cathode never
     # lowers the anode's rate" (tests/test_fasteners.py); undamped steps did not.
+    # Where the new λ falls steeply with λ the damped steps cycle instead of
+    # settling; then the root of log(λ_new/λ) is bisected in log λ (below).
     lam_cap = math.sqrt(max(lay.surround_area_m2, 1e-12) / math.pi) if lay.surround_area_m2 \
         else math.inf
     lam = lam_cap if lay.surrounds else math.inf
-    sol = None
-    for _ in range(SPREAD_ITERATIONS):
+    per_site = lay.sites * (lay.faces if film is not None else 1)
+    sur_is_cathode = lay.site_role == "anode"
+
+    def at(lam, guess, step=3e-3):
+        """(solution, A_a_eff, A_c_eff, R, new λ or None) with the surround within λ."""
         A_sur = _surround_area(lay, lam) if lay.surround_area_m2 > 0 else 0.0
-        A_a_eff, A_c_eff = (lay.site_area_m2, A_sur) if lay.site_role == "anode" else \
+        A_a_eff, A_c_eff = (lay.site_area_m2, A_sur) if sur_is_cathode else \
             (A_sur, lay.site_area_m2)
         if A_a_eff <= 0:
-            break
+            return None
         R = (math.inf if isolated else
              (resistance_ohm(lay, rho, max(A_sur, 1e-12), film, lam) + R_extra_ohm)
              if A_c_eff > 0 else math.inf)
-        sol = cell.solve(anode_el, cathode_el, A_a_eff, A_c_eff, R)
+        sol = cell.solve(anode_el, cathode_el, A_a_eff, A_c_eff, R, guess_V=guess,
+                         step_V=step)
         if not lay.surrounds or sol.current_A == 0:
-            break
-        sur_el, E_sur = (cathode_el, sol.E_cathode_V) if lay.site_role == "anode" else \
+            return sol, A_a_eff, A_c_eff, R, None
+        sur_el, E_sur = (cathode_el, sol.E_cathode_V) if sur_is_cathode else \
             (anode_el, sol.E_anode_V)
-        per_face = sol.current_A / (lay.sites * (lay.faces if film is not None else 1))
-        new_lam = min(lam_cap, cell.spread_length_m(cell.softness_V(sur_el, E_sur), per_face,
-                                                    rho, lay.site_radius_m, film))
-        if abs(math.log(new_lam / lam)) <= SPREAD_TOLERANCE:
+        new_lam = min(lam_cap, cell.spread_length_m(cell.softness_V(sur_el, E_sur),
+                                                    sol.current_A / per_site, rho,
+                                                    lay.site_radius_m, film))
+        return sol, A_a_eff, A_c_eff, R, new_lam
+
+    sol = None
+    visited = []          # (λ, log(λ_new/λ)) of every damped step that did not settle
+    step = 3e-3           # how far the anode potential moved in the last step [V]
+    for _ in range(SPREAD_ITERATIONS):
+        prev = sol
+        state = at(lam, sol.E_anode_V if sol is not None else None, step)
+        if state is None:
             break
+        sol, A_a_eff, A_c_eff, R, new_lam = state
+        if prev is not None:
+            step = 0.5 * abs(sol.E_anode_V - prev.E_anode_V)
+        if new_lam is None:
+            break
+        phi = math.log(new_lam / lam)
+        if abs(phi) <= SPREAD_TOLERANCE:
+            break
+        visited.append((lam, phi))
         lam = math.sqrt(lam * new_lam)
+    else:
+        lam, state = _bisect_spread(at, visited, sol, lay.site_radius_m)
+        sol, A_a_eff, A_c_eff, R, _ = state
     spread = lam if (lay.surrounds and lam < lam_cap) else math.inf
     return {"solution": sol, "A_anode_eff_m2": A_a_eff, "A_cathode_eff_m2": A_c_eff,
             "A_anode_m2": A_an, "A_cathode_m2": A_ca, "R_ohm": R, "spread_m": spread,
             "ohmic_limit_A": (sol.driving_V / R if R > 0 and math.isfinite(R) else math.inf)}
+
+
+def _bisect_spread(at, visited, sol, r0_m):
+    """λ where log(λ_new/λ) changes sign, bisected in log λ to SPREAD_TOLERANCE,
+    and the state ``at(λ)`` there.
+
+    Used when the damped fixed point cycles (λ_new falls steeply with λ, as where
+    a fastener's current just reaches the size that spreads over the whole
+    plate). Of the steps already taken, the bracket's upper end is the smallest λ
+    above the largest λ whose λ_new was larger (log(λ_new/λ) > 0): the root next
+    below the whole member, the one the damped steps aim at. Without such a step
+    λ is divided by 4 until one is found, down to a thousandth of r₀.
+    """
+    guess = sol.E_anode_V
+    up = [lam for lam, phi in visited if phi > 0]
+    lo = max(up) if up else None
+    if lo is None:
+        lam = min(lam for lam, _ in visited)
+        while lo is None:
+            lam *= 0.25
+            state = at(lam, guess)
+            if state is None or state[4] is None or lam < 1e-3 * r0_m:
+                return lam, state if state is not None else at(lam * 4.0, guess)
+            guess = state[0].E_anode_V
+            if state[4] > lam:
+                lo = lam
+    hi = min(lam for lam, phi in visited if phi < 0 and lam > lo)
+    while True:
+        lam = math.sqrt(lo * hi)
+        state = at(lam, guess)
+        if state[4] is None or math.log(hi / lo) <= SPREAD_TOLERANCE:
+            return lam, state
+        guess = state[0].E_anode_V
+        if state[4] > lam:
+            lo = lam
+        else:
+            hi = lam
 
 
 @lru_cache(maxsize=128)
