@@ -69,6 +69,18 @@ def freeze() -> None:
     gc.freeze()
 
 
+def run_json(calc: str, inputs_json: str, headline_only: bool = False) -> str:
+    """``api.run`` with JSON text in and out, for the worker's calls that pass
+    ``headline_only`` (the page's first phase: the headline, then the rest).
+
+    >>> full = json.loads(run_json("fastener", json.dumps(api.get("fastener").example)))
+    >>> first = json.loads(run_json("fastener", json.dumps(api.get("fastener").example), True))
+    >>> first["result"]["display"]["headline"] == full["result"]["display"]["headline"]
+    True
+    """
+    return json.dumps(api.run(calc, json.loads(inputs_json), headline_only=bool(headline_only)))
+
+
 def _pick(result: dict, key: str):
     return result["result"]["display"]["headline"] if key == "headline" else result["result"][key]
 

@@ -365,4 +365,6 @@ class Calculator:
             "intro": self.intro, "page": f"{self.name}.html",
             "fields": [f.to_dict() for f in self.fields],
             "example": dict(self.example),
+            # The page runs the headline first, then the rest, where this is true.
+            "headline_path": self.headline is not None,
         }

@@ -7,7 +7,13 @@
 //            inputs on screen are the example's (and labelled as the example);
 //   pending  your inputs are being computed (or wait for the engine): they
 //            are echoed, and no number of any other inputs is on screen;
-//   live     your result, for the inputs on screen;
+//   live     your result, for the inputs on screen; on a page whose
+//            calculator has a headline path (schema.headline_path), a typed
+//            edit shows it in two phases (#result data-phase): "headline"
+//            (verdict, headline and range, weakest source, warnings; the
+//            rest marked as being computed for these inputs, nothing of other
+//            inputs), then "full"; only the full result reaches the job bar
+//            (the "noblegap:result" event);
 //   error    not computed: the marked field needs fixing (no verdict, no
 //            numbers); also after a calculation overran or the engine failed
 //            (data-reason says which).
@@ -52,6 +58,7 @@ let startTimer = 0;
 let stalledKey = null; // inputs whose calculation overran: not retried until edited
 let pendingError = null; // an input error held back while the person types
 let early = null; // the first call, sent before the engine is ready
+let headlineNext = false; // the next calculation is a typed edit's: headline first
 const waiting = new Map();
 
 // ---------- inputs and the URL ----------
@@ -258,6 +265,10 @@ async function compute() {
   }
   busy = true;
   pending = false;
+  // Only a typed edit shows the headline first; a link, a restored example,
+  // Back or Undo wait for the whole result.
+  const headlineFirst = headlineNext && schema.headline_path === true;
+  headlineNext = false;
   // A result of other inputs stays only for the blink of a fast answer.
   if (resultBox.dataset.state === "live" || resultBox.dataset.state === "example") {
     resultBox.classList.add("is-stale");
@@ -265,11 +276,35 @@ async function compute() {
   const pendTimer = setTimeout(() => showPending(inputs), PENDING_AFTER_MS);
   const sent = early && early.key === key ? early.reply : null;
   early = null;
+  const superseded = () => pending || keyOf(readInputs()) !== key;
+  if (headlineFirst && !sent) {
+    const first = await call(NAMES.calls.run, { calc: schema.name, inputs, headline_only: true });
+    if (superseded()) {
+      clearTimeout(pendTimer);
+      resultBox.classList.remove("is-stale");
+      busy = false;
+      compute();
+      return;
+    }
+    if (!(first.ok && first.result && first.result.ok)) {
+      // Not computed (or stopped): shown as for a whole result; no second phase.
+      clearTimeout(pendTimer);
+      resultBox.classList.remove("is-stale");
+      busy = false;
+      if (first.stalled) return showStalled();
+      if (first.failed) return showCurrent();
+      render(first, inputs);
+      return;
+    }
+    clearTimeout(pendTimer);
+    resultBox.classList.remove("is-stale");
+    renderHeadline(first);
+  }
   const reply = await (sent ?? call(NAMES.calls.run, { calc: schema.name, inputs }));
   clearTimeout(pendTimer);
   resultBox.classList.remove("is-stale");
   busy = false;
-  if (pending || keyOf(readInputs()) !== key) {
+  if (superseded()) {
     compute();
     return;
   }
@@ -493,7 +528,18 @@ function place(root) {
   for (const img of root.querySelectorAll("img[data-min-width]")) img.style.minWidth = `${img.dataset.minWidth}px`;
 }
 
-function buildDisplay(d) {
+// Where the whole result's charts, tables and next steps will be, while they
+// are computed for the inputs on screen (the headline phase).
+function comingNote() {
+  const box = el("section", "result-coming");
+  box.setAttribute("aria-busy", "true");
+  box.appendChild(el("p", "coming-text",
+    "Still being computed for these inputs: the charts, the tables of other choices and mitigations, and the next steps."));
+  return box;
+}
+
+// coming: the headline phase (the rest is marked as still being computed).
+function buildDisplay(d, coming = false) {
   const frag = document.createDocumentFragment();
   if (d.verdict) {
     const p = el("p", `verdict verdict-${d.verdict.class}`);
@@ -532,6 +578,7 @@ function buildDisplay(d) {
     }
     frag.appendChild(dl);
   }
+  if (coming) frag.appendChild(comingNote());
   for (const c of d.charts || []) frag.appendChild(chartImage(c));
   for (const t of d.tables || []) frag.appendChild(buildTable(t));
   const steps = nextSteps(d.links);
@@ -611,16 +658,23 @@ function setSummary(state, verdict, headline) {
   summary.appendChild(el("span", "summary-text", headline));
 }
 
-function setState(state, label, reason) {
+// phase: "headline" or "full" for a live result (see the top of this file).
+function setState(state, label, reason, phase = "full") {
   seq += 1;
   resultBox.dataset.state = state;
+  if (state === "live") resultBox.dataset.phase = phase;
+  else delete resultBox.dataset.phase;
   if (reason) resultBox.dataset.reason = reason;
   else delete resultBox.dataset.reason;
   stateLabel.textContent = label || "";
   stateLabel.hidden = !label;
   stateLabel.className = `example-label state-${state}`;
   resultBox.dataset.resultSeq = String(seq);
-  if (lastInputAt) resultBox.dataset.latencyMs = (performance.now() - lastInputAt).toFixed(2);
+  if (lastInputAt) {
+    const ms = (performance.now() - lastInputAt).toFixed(2);
+    resultBox.dataset.latencyMs = ms;
+    if (phase === "headline" && state === "live") resultBox.dataset.headlineLatencyMs = ms;
+  }
 }
 
 function showExample() {
@@ -684,6 +738,19 @@ function renderError(err, inputs) {
   setSummary("error", null, "Not computed: fix the marked field");
 }
 
+// The headline phase of a typed edit: the reply of a headline-only run.
+// Not announced to the job bar: saving, printing and comparing wait for the whole result.
+function renderHeadline(reply) {
+  clearTimeout(errorTimer);
+  showReadAs(reply.result.inputs_read);
+  clearFieldErrors();
+  const d = reply.result.result.display;
+  resultBody.replaceChildren(buildDisplay(d, true));
+  place(resultBody);
+  setState("live", "", null, "headline");
+  setSummary("live", d.verdict, d.summary || d.headline);
+}
+
 function render(reply, inputs) {
   clearTimeout(errorTimer);
   showReadAs((reply.result || reply.response || {}).inputs_read);
@@ -728,6 +795,10 @@ function announceSoon(d) {
 // ---------- events ----------
 function onEdit(ev) {
   lastInputAt = performance.now();
+  delete resultBox.dataset.headlineLatencyMs;
+  // Typed or picked in the form: the headline first; any other call of onEdit
+  // (the example restored, Undo, Back) waits for the whole result.
+  headlineNext = Boolean(ev && ev.type === "input");
   stalledKey = null;
   pendingError = null;
   clearTimeout(errorTimer);

@@ -112,10 +112,12 @@ def wait_for(page, expression, timeout_ms=ENGINE_TIMEOUT_MS, arg=None):
 
 
 def wait_live(page, seq_after=0):
-    """Wait until the engine is ready and a live result newer than seq_after shows."""
+    """Wait until the engine is ready and a live result newer than seq_after shows
+    (a whole one: not the headline phase of a typed edit, test_headline_first.py)."""
     wait_for(page,
              "(s) => { const r = document.getElementById('result');"
              " return document.body.dataset.engine === 'ready' && !!r &&"
              " (r.dataset.state === 'live' || r.dataset.state === 'error') &&"
+             " r.dataset.phase !== 'headline' &&"
              " Number(r.dataset.resultSeq) > s; }", arg=seq_after)
     return int(page.get_attribute("#result", "data-result-seq"))

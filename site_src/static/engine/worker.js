@@ -146,7 +146,9 @@ function jobCall(engine, fn, args) {
 
 function answer(engine, fn, args) {
   if (fn === CALLS.run) {
-    const response = engine.run(args.calc, args.inputs);
+    const response = args.headline_only
+      ? JSON.parse(engine.hooks.run_json(String(args.calc), JSON.stringify(args.inputs ?? {}), true))
+      : engine.run(args.calc, args.inputs);
     if (response.ok) return { ok: true, result: response };
     return { ok: false, error: workerError(response.error ?? {}), response };
   }
