@@ -48,16 +48,20 @@ const offlineCopy = typeof self !== "undefined" && String(self.name ?? "").inclu
 
 /**
  * Unpack a gzip response: {bytes, sha256, packed: true}, the sha256 being
- * that of the compressed bytes as they came.
+ * that of the compressed bytes as they came. The body is unpacked while it
+ * downloads (one branch of it), and kept whole for the hash (the other), so
+ * nothing is left to unpack once its last byte is in.
  */
-async function gunzipResponse(response) {
-  if (!response.ok) throw new Error(`snapshot file: HTTP ${response.status}`);
-  // whole first (drained off this thread), then hashed and unpacked at once
-  const packed = new Uint8Array(await response.arrayBuffer());
-  const hashed = sha256Hex(packed);
-  const stream = new Blob([packed]).stream().pipeThrough(new DecompressionStream("gzip"));
-  const bytes = new Uint8Array(await new Response(stream).arrayBuffer());
-  return { bytes, sha256: await hashed, packed: true };
+async function gunzipResponse(response, mark = () => {}) {
+  if (!response.ok || !response.body) throw new Error(`snapshot file: HTTP ${response.status}`);
+  const [kept, unpacked] = response.body.tee();
+  const packed = new Response(kept).arrayBuffer().then((buffer) => {
+    mark("snapshot downloaded");
+    return sha256Hex(new Uint8Array(buffer));
+  });
+  const bytes = new Response(unpacked.pipeThrough(new DecompressionStream("gzip"))).arrayBuffer();
+  const [sha256, raw] = await Promise.all([packed, bytes]);
+  return { bytes: new Uint8Array(raw), sha256, packed: true };
 }
 
 /** The container as the offline copy holds it, unpacked: {bytes, sha256, packed: false}. */
@@ -106,7 +110,7 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   const snapshotBase = new URL(snapshotInfoURL, "file:///");
   const guessURL = new URL(FAST.snapshot_file, snapshotBase).href;
   const stop = new AbortController();
-  const unpack = (url) => fetchFn(url, { signal: stop.signal }).then(gunzipResponse);
+  const unpack = (url) => fetchFn(url, { signal: stop.signal }).then((response) => gunzipResponse(response, mark));
   const plainURL = new URL(FAST.unpacked_snapshot_file, snapshotBase).href;
   const early = offlineCopy
     ? fetchFn(plainURL, { signal: stop.signal }).then(plainResponse).catch(() => unpack(guessURL))
