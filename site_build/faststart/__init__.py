@@ -36,6 +36,9 @@ FASTSTART_NAMES = {
     # into its offline copy under this name, so later visits skip the gunzip.
     "unpacked_snapshot_file": "noblegap-snapshot.container",
     "stdlib_file": "noblegap-stdlib.zip",
+    # What the fast start loads instead: the members the snapshot has not
+    # imported (its sha256 is in the sidecar, checked before Pyodide reads it).
+    "stdlib_rest_file": "noblegap-stdlib-rest.zip",
     # Runtime files shipped with a gzip twin (compressed.py); the fast start
     # fetches the twin and unpacks it in the worker.
     "compressed": {"pyodide.asm.wasm": "pyodide.asm.wasm.gzip"},

@@ -272,6 +272,64 @@ export function captureRuntimeWasm(wasmURL = null, packedURL = null) {
   };
 }
 
+/**
+ * Until release(): a fetch of url (in a browser; the fast start's standard
+ * library, which Pyodide fetches itself) is read whole and its sha256
+ * compared with the one expected resolves to. checked settles once that is
+ * known: resolved when they match, else rejected with the reason; the
+ * caller refuses the snapshot then. The bytes are handed on either way (a
+ * rejection here would surface inside Pyodide, unhandled), and a failed
+ * download fails as it would without this wrapper. Under Node Pyodide reads
+ * the file itself: checked is resolved at once.
+ */
+export function checkFetched(url, expected) {
+  const original = globalThis.fetch;
+  if (typeof location === "undefined" || typeof original !== "function") {
+    return { checked: Promise.resolve(), release() {} };
+  }
+  // (a sidecar that fails rejects expected: the caller hears of it elsewhere)
+  expected.catch(() => {});
+  let settle;
+  const checked = new Promise((resolve, reject) => (settle = { resolve, reject }));
+  checked.catch(() => {});
+  const name = url.split("/").pop();
+  let released = false;
+  const wrapper = function (input, init) {
+    let href = null;
+    try {
+      href = new URL(String(input instanceof Request ? input.url : input), location).href;
+    } catch {
+      // not a URL this wrapper is about
+    }
+    if (released || href !== url) return original.call(this, input, init);
+    const fetched = original.call(this, input, init);
+    fetched.catch((err) => settle.reject(err));
+    return fetched.then(async (response) => {
+      if (!response.ok) {
+        settle.reject(new Error(`${name}: HTTP ${response.status}`));
+        return response;
+      }
+      const bytes = new Uint8Array(await response.arrayBuffer());
+      Promise.all([sha256Hex(bytes), expected]).then(
+        ([actual, wanted]) => {
+          if (actual === wanted) settle.resolve();
+          else settle.reject(new Error(`${name} is not the one the snapshot was made with`));
+        },
+        (err) => settle.reject(err),
+      );
+      return new Response(bytes, { status: response.status, headers: response.headers });
+    });
+  };
+  globalThis.fetch = wrapper;
+  return {
+    checked,
+    release() {
+      released = true;
+      if (globalThis.fetch === wrapper) globalThis.fetch = original;
+    },
+  };
+}
+
 function readLEB(bytes, at, signed = false) {
   let result = 0;
   let shift = 0;

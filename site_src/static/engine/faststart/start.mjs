@@ -18,7 +18,15 @@
 // state, and engine_hooks.known_case_error() must find the answer the build
 // recorded.
 import { NAMES, PYODIDE_VERSION, bindApi, loadPyodide, runtimeOptions } from "../engine.mjs";
-import { applyBase, applyPages, baseFromMemory, captureRuntimeWasm, parseSnapshot, sha256Hex } from "./restore.mjs";
+import {
+  applyBase,
+  applyPages,
+  baseFromMemory,
+  captureRuntimeWasm,
+  checkFetched,
+  parseSnapshot,
+  sha256Hex,
+} from "./restore.mjs";
 
 const FAST = NAMES.faststart;
 
@@ -151,6 +159,12 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   const runtimeBase = typeof location === "undefined" ? null : new URL(indexURL, location);
   const wasmURL = runtimeBase && new URL("pyodide.asm.wasm", runtimeBase).href;
   const packed = offlineCopy ? null : FAST.compressed?.["pyodide.asm.wasm"];
+  // The standard library: only the members the snapshot has not imported
+  // (names.json "stdlib_rest_file"), checked against the sidecar.
+  const stdLibURL = runtimeBase
+    ? new URL(FAST.stdlib_rest_file, runtimeBase).href
+    : `${indexURL.endsWith("/") ? indexURL : indexURL + "/"}${FAST.stdlib_rest_file}`;
+  const stdlib = checkFetched(stdLibURL, checked.then(({ info }) => info.stdlib_rest_sha256));
   const capture = captureRuntimeWasm(wasmURL, runtimeBase && packed ? new URL(packed, runtimeBase).href : null);
   // What needs no runtime is written as soon as the container is here:
   // Pyodide's header and the pages past the base.
@@ -163,6 +177,7 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   let containerError = null;
   const pyodide = await loadPyodide({
     ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
+    stdLibURL,
     _loadSnapshot: memory,
     // Runs once the WebAssembly is instantiated and before Python resumes
     // from the memory: the base pages are rebuilt from the runtime's fresh
@@ -176,6 +191,8 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
       capture.release();
       try {
         if (!runtimeMemory) throw new Error("the runtime's memory was not seen");
+        await stdlib.checked;
+        stdlib.release();
         const snapshot = await paged;
         const base = baseFromMemory(runtimeMemory.buffer, snapshot);
         if ((await sha256Hex(base)) !== snapshot.header.base.sha256) {
@@ -195,7 +212,10 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
     .catch((err) => {
       throw containerError ?? err;
     })
-    .finally(() => capture.release());
+    .finally(() => {
+      capture.release();
+      stdlib.release();
+    });
   if (containerError) throw containerError;
   const { info } = await checked;
   phase("check engine");
