@@ -71,13 +71,32 @@ def emulate(context, page, tablet):
         "downloadThroughput": RATE_BPS, "uploadThroughput": RATE_BPS})
 
 
+class TimedCounter(bench.ByteCounter):
+    """A ByteCounter that also keeps when each block was sent (monotonic s)."""
+
+    def reset(self):
+        super().reset()
+        self.sent = []
+
+    def add(self, wire, raw):
+        super().add(wire, raw)
+        with self.lock:
+            self.sent.append((time.monotonic(), wire))
+
+    def bytes_before(self, moment):
+        with self.lock:
+            return sum(wire for at, wire in self.sent if at <= moment)
+
+
 def first_live(context, url, timeout_s, tablet, counter=None):
     """Open url; returns (page, first live ms, result state, engine mode).
-    With counter, its byte count is read as soon as the first live result is
-    seen (before the offline copy's precache, which starts after it), into
-    counter.at_first_live."""
+    With counter (a TimedCounter), counter.at_first_live is set to the bytes
+    sent until the first live result was on the page (the offline copy's
+    precache starts after it): the page's clock starts at navigation, taken
+    here as the moment just before page.goto."""
     page = context.new_page()
     emulate(context, page, tablet)
+    started = time.monotonic()
     page.goto(url)
     bench.wait_attr(page, 'body[data-engine="ready"]', timeout_s)
     deadline = time.monotonic() + timeout_s
@@ -86,7 +105,7 @@ def first_live(context, url, timeout_s, tablet, counter=None):
         marks = page.evaluate("() => window.__benchMarks")
         if marks.get("firstLive") is not None:
             if counter is not None:
-                counter.at_first_live = counter.bytes
+                counter.at_first_live = counter.bytes_before(started + marks["firstLive"] / 1000)
             break
         time.sleep(0.02)
     state = page.get_attribute("#result", "data-state")
@@ -141,7 +160,7 @@ def main(argv=None) -> int:
     with sync_playwright() as p:
         for device in args.devices.split(","):
             for host in args.hosts.split(","):
-                counter = bench.ByteCounter()
+                counter = TimedCounter()
                 server = bench.make_server(build, site, bench_dir, counter, gz, gzip_host=host == "gzip")
                 thread = threading.Thread(target=server.serve_forever, daemon=True)
                 thread.start()

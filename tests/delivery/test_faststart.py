@@ -288,6 +288,17 @@ def test_fast_start_stdlib_is_the_site_stdlib_less_what_the_snapshot_imported(si
     assert rest_path.stat().st_size < 0.7 * (site / "pyodide" / STDLIB_FILE).stat().st_size
 
 
+def test_early_requests_are_the_large_files_of_the_fast_start(site, manifest):
+    # what the worker requests before loading the engine's scripts: files of
+    # the site, in the offline copy's list, the fast start's and nothing else
+    early = FASTSTART_NAMES["early"]
+    assert early == [f"{paths.PACKAGES_DIR}/{FASTSTART_NAMES['snapshot_file']}",
+                     f"{paths.PYODIDE_DIR}/{FASTSTART_NAMES['compressed']['pyodide.asm.wasm']}",
+                     f"{paths.PYODIDE_DIR}/{STDLIB_REST_FILE}"]
+    for path in early:
+        assert (site / path).is_file() and path in manifest["files"], path
+
+
 def test_names_json_is_the_builds_names_written_once(site):
     names = read_names(site)
     assert names["faststart"] == FASTSTART_NAMES

@@ -187,10 +187,11 @@ export function applyBase({ header, pages }, target, base) {
  * that module. With packedURL (the build's gzip twin of the binary) the
  * compile reads the twin through the browser's DecompressionStream, so the
  * download is the compressed size whatever the host does; should that
- * fail, the plain binary is compiled instead. Under Node Pyodide reads the
- * file and instantiates the bytes.
+ * fail, the plain binary is compiled instead. packedResponse: a promise of
+ * the twin's response requested earlier (worker.js), used instead of a new
+ * request. Under Node Pyodide reads the file and instantiates the bytes.
  */
-export function captureRuntimeWasm(wasmURL = null, packedURL = null) {
+export function captureRuntimeWasm(wasmURL = null, packedURL = null, packedResponse = null) {
   const W = globalThis.WebAssembly;
   const original = {
     fetch: globalThis.fetch,
@@ -220,7 +221,7 @@ export function captureRuntimeWasm(wasmURL = null, packedURL = null) {
     const compile = async () => {
       if (packedURL === null || typeof DecompressionStream !== "function") return plain();
       try {
-        const response = await original.fetch.call(globalThis, packedURL, { credentials: "same-origin" });
+        const response = await (packedResponse ?? original.fetch.call(globalThis, packedURL, { credentials: "same-origin" }));
         if (!response.ok || !response.body) throw new Error(`HTTP ${response.status}`);
         const body = response.body.pipeThrough(new DecompressionStream("gzip"));
         return await W.compileStreaming(new Response(body, { headers: { "Content-Type": "application/wasm" } }));
@@ -279,10 +280,12 @@ export function captureRuntimeWasm(wasmURL = null, packedURL = null) {
  * known: resolved when they match, else rejected with the reason; the
  * caller refuses the snapshot then. The bytes are handed on either way (a
  * rejection here would surface inside Pyodide, unhandled), and a failed
- * download fails as it would without this wrapper. Under Node Pyodide reads
+ * download fails as it would without this wrapper. earlyResponse: a
+ * promise of the response to the same URL requested earlier, used for the
+ * first such fetch instead of a new request. Under Node Pyodide reads
  * the file itself: checked is resolved at once.
  */
-export function checkFetched(url, expected) {
+export function checkFetched(url, expected, earlyResponse = null) {
   const original = globalThis.fetch;
   if (typeof location === "undefined" || typeof original !== "function") {
     return { checked: Promise.resolve(), release() {} };
@@ -302,7 +305,9 @@ export function checkFetched(url, expected) {
       // not a URL this wrapper is about
     }
     if (released || href !== url) return original.call(this, input, init);
-    const fetched = original.call(this, input, init);
+    // the first request may have been made already (worker.js)
+    const fetched = earlyResponse ?? original.call(this, input, init);
+    earlyResponse = null;
     fetched.catch((err) => settle.reject(err));
     return fetched.then(async (response) => {
       if (!response.ok) {

@@ -104,7 +104,7 @@ async function snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn) {
   return { info, lock: JSON.parse(new TextDecoder().decode(lockBytes)) };
 }
 
-export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark }) {
+export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark, early }) {
   snapshotInfoURL ??= new URL(`../../../${NAMES.packages_dir}/${FAST.info_file}`, import.meta.url).href;
   phase("fetch runtime", "Fetching the Python runtime and the prepared engine");
   // loadPyodide starts at once (the runtime downloads meanwhile); it waits
@@ -118,14 +118,19 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   const snapshotBase = new URL(snapshotInfoURL, "file:///");
   const guessURL = new URL(FAST.snapshot_file, snapshotBase).href;
   const stop = new AbortController();
-  const unpack = (url) => fetchFn(url, { signal: stop.signal }).then((response) => gunzipResponse(response, mark));
+  // the worker's early request when it made one (worker.js), else our own
+  const request = (url) => early?.take(url) ?? fetchFn(url, { signal: stop.signal });
+  const unpack = (url) => request(url).then((response) => gunzipResponse(response, mark));
   const plainURL = new URL(FAST.unpacked_snapshot_file, snapshotBase).href;
-  const early = offlineCopy
+  const guessed = offlineCopy
     ? fetchFn(plainURL, { signal: stop.signal }).then(plainResponse).catch(() => unpack(guessURL))
     : unpack(guessURL);
-  early.catch(() => {});
-  // No usable sidecar (the normal start follows): stop the download.
-  checked.catch(() => stop.abort());
+  guessed.catch(() => {});
+  // No usable sidecar (the normal start follows): stop the downloads.
+  checked.catch(() => {
+    stop.abort();
+    early?.abort(guessURL);
+  });
   // Pyodide needs only the memory's size to compile and instantiate its
   // WebAssembly, and reads the memory itself only after fsInit below has
   // returned: so it gets a zero-filled buffer of the sidecar's size at once,
@@ -138,7 +143,7 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
     const { info } = await checked;
     mark("snapshot info checked");
     const url = new URL(info.file, snapshotBase).href;
-    const { bytes, sha256, packed } = await (url === guessURL ? early : unpack(url));
+    const { bytes, sha256, packed } = await (url === guessURL ? guessed : unpack(url));
     mark(packed ? "snapshot unpacked" : "snapshot read unpacked");
     if (bytes.length !== info.raw_size) {
       throw new Error(`snapshot unpacks to ${bytes.length} bytes, its sidecar says ${info.raw_size}`);
@@ -164,8 +169,9 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   const stdLibURL = runtimeBase
     ? new URL(FAST.stdlib_rest_file, runtimeBase).href
     : `${indexURL.endsWith("/") ? indexURL : indexURL + "/"}${FAST.stdlib_rest_file}`;
-  const stdlib = checkFetched(stdLibURL, checked.then(({ info }) => info.stdlib_rest_sha256));
-  const capture = captureRuntimeWasm(wasmURL, runtimeBase && packed ? new URL(packed, runtimeBase).href : null);
+  const stdlib = checkFetched(stdLibURL, checked.then(({ info }) => info.stdlib_rest_sha256), early?.take(stdLibURL));
+  const packedURL = runtimeBase && packed ? new URL(packed, runtimeBase).href : null;
+  const capture = captureRuntimeWasm(wasmURL, packedURL, packedURL && early?.take(packedURL));
   // What needs no runtime is written as soon as the container is here:
   // Pyodide's header and the pages past the base.
   const paged = Promise.all([container, memory]).then(([snapshot, target]) => {
