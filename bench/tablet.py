@@ -28,6 +28,7 @@ from __future__ import annotations
 
 import argparse
 import datetime
+import os
 import shutil
 import sys
 import tempfile
@@ -70,9 +71,32 @@ def emulate(context, page, tablet):
         "downloadThroughput": RATE_BPS, "uploadThroughput": RATE_BPS})
 
 
-def first_live(context, url, timeout_s, tablet):
+class TimedCounter(bench.ByteCounter):
+    """A ByteCounter that also keeps when each block was sent (monotonic s)."""
+
+    def reset(self):
+        super().reset()
+        self.sent = []
+
+    def add(self, wire, raw):
+        super().add(wire, raw)
+        with self.lock:
+            self.sent.append((time.monotonic(), wire))
+
+    def bytes_before(self, moment):
+        with self.lock:
+            return sum(wire for at, wire in self.sent if at <= moment)
+
+
+def first_live(context, url, timeout_s, tablet, counter=None):
+    """Open url; returns (page, first live ms, result state, engine mode).
+    With counter (a TimedCounter), counter.at_first_live is set to the bytes
+    sent until the first live result was on the page (the offline copy's
+    precache starts after it): the page's clock starts at navigation, taken
+    here as the moment just before page.goto."""
     page = context.new_page()
     emulate(context, page, tablet)
+    started = time.monotonic()
     page.goto(url)
     bench.wait_attr(page, 'body[data-engine="ready"]', timeout_s)
     deadline = time.monotonic() + timeout_s
@@ -80,6 +104,8 @@ def first_live(context, url, timeout_s, tablet):
     while time.monotonic() < deadline:
         marks = page.evaluate("() => window.__benchMarks")
         if marks.get("firstLive") is not None:
+            if counter is not None:
+                counter.at_first_live = counter.bytes_before(started + marks["firstLive"] / 1000)
             break
         time.sleep(0.02)
     state = page.get_attribute("#result", "data-state")
@@ -116,6 +142,7 @@ def main(argv=None) -> int:
     PHASES_TO_STDERR = args.phases
     from playwright.sync_api import sync_playwright
 
+    load_start = os.getloadavg()
     build = bench.load_build()
     site = bench.ensure_site(build)
     bench_dir = Path(tempfile.mkdtemp(prefix="noblegap-tablet-"))
@@ -133,7 +160,7 @@ def main(argv=None) -> int:
     with sync_playwright() as p:
         for device in args.devices.split(","):
             for host in args.hosts.split(","):
-                counter = bench.ByteCounter()
+                counter = TimedCounter()
                 server = bench.make_server(build, site, bench_dir, counter, gz, gzip_host=host == "gzip")
                 thread = threading.Thread(target=server.serve_forever, daemon=True)
                 thread.start()
@@ -158,8 +185,8 @@ def main(argv=None) -> int:
                         ctx = fresh()
                         ctx.add_init_script(bench.TIMING_INIT_SCRIPT)
                         counter.reset()
-                        page, ms, state, mode = first_live(ctx, base + url, args.timeout, tablet)
-                        row[f"{name} first bytes"] = counter.bytes
+                        page, ms, state, mode = first_live(ctx, base + url, args.timeout, tablet, counter)
+                        row[f"{name} first bytes"] = counter.at_first_live
                         row[f"{name} first"], row[f"{name} mode"] = ms, mode
                         if state != "live":
                             raise RuntimeError(f"{url}: result state {state}")
@@ -176,16 +203,18 @@ def main(argv=None) -> int:
                       + ", ".join(f"{k} {v:.0f}" if isinstance(v, float) else f"{k} {v}" for k, v in row.items()),
                       file=sys.stderr, flush=True)
     shutil.rmtree(bench_dir, ignore_errors=True)
-    report(results, links, args.markdown)
+    report(results, links, args.markdown, (load_start, os.getloadavg()))
     return 0
 
 
-def report(results, links, markdown):
+def report(results, links, markdown, loads):
     when = datetime.datetime.now().astimezone().isoformat(timespec="seconds")
+    load = " / ".join(f"{a:.2f}, {b:.2f}, {c:.2f}" for a, b, c in loads)
     lines = [f"date: {when}", f"machine: {bench.machine()}",
+             f"load average (1, 5, 15 min) at start / at end: {load}",
              f"tablet: CPU x{CPU_RATE} (Emulation.setCPUThrottlingRate), link {RATE_BPS * 8 / 1e6:.0f} Mbit/s, "
              f"{LATENCY_S * 1000:.0f} ms (Network.emulateNetworkConditions); shared links: {', '.join(links.values())}", ""]
-    head = ["device", "host", "visit", "bare boot", "lightest", "ratio", "heaviest", "ratio", "first-visit MB (bare / lightest)"]
+    head = ["device", "host", "visit", "bare boot", "lightest", "ratio", "heaviest", "ratio", "first-visit MB to first result (bare / lightest)"]
     rows = []
     for (device, host), r in results.items():
         for visit in ("first", "second"):

@@ -57,7 +57,9 @@ def warm_up() -> int:
 
 def after_restore() -> None:
     """Right after a restore: fresh random state for every user, and the
-    import system forgets the directory listings made at build time."""
+    import system forgets the directory listings made at build time (the
+    fast start's standard library zip holds only the modules not imported
+    yet, so its directory must be read again)."""
     random.seed(int.from_bytes(os.urandom(32), "big"))
     importlib.invalidate_caches()
 
@@ -137,6 +139,27 @@ def imported_package_files(site_packages: str) -> str:
         origin = getattr(spec, "origin", None)
         if isinstance(origin, str) and origin.startswith(prefix):
             found.add(origin[len(prefix):])
+    return json.dumps(sorted(found))
+
+
+def imported_stdlib_members() -> str:
+    """JSON list of the members of the standard library zip (the ``.zip``
+    on ``sys.path``) whose modules are imported now, sorted: the fast start
+    ships the members not among them (their code is in the saved memory).
+
+    >>> isinstance(json.loads(imported_stdlib_members()), list)
+    True
+    """
+    zips = [p.rstrip("/") + "/" for p in sys.path if p.endswith(".zip")]
+    found = set()
+    for module in list(sys.modules.values()):
+        spec = getattr(module, "__spec__", None)
+        origin = getattr(spec, "origin", None)
+        if not isinstance(origin, str):
+            continue
+        for prefix in zips:
+            if origin.startswith(prefix):
+                found.add(origin[len(prefix):])
     return json.dumps(sorted(found))
 
 

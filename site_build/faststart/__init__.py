@@ -20,6 +20,7 @@ import shutil
 from pathlib import Path
 
 from ..common import log
+from ..paths import PACKAGES_DIR, PYODIDE_DIR
 
 HERE = Path(__file__).absolute().parent
 
@@ -36,12 +37,23 @@ FASTSTART_NAMES = {
     # into its offline copy under this name, so later visits skip the gunzip.
     "unpacked_snapshot_file": "noblegap-snapshot.container",
     "stdlib_file": "noblegap-stdlib.zip",
+    # What the fast start loads instead: the members the snapshot has not
+    # imported (its sha256 is in the sidecar, checked before Pyodide reads it).
+    "stdlib_rest_file": "noblegap-stdlib-rest.zip",
     # Runtime files shipped with a gzip twin (compressed.py); the fast start
     # fetches the twin and unpacks it in the worker.
     "compressed": {"pyodide.asm.wasm": "pyodide.asm.wasm.gzip"},
     # The id a snapshot must carry: both sides fill in this template.
     "build_id": "noblegap-snapshot/{format}|pyodide {pyodide}|lock {lock_sha256}",
 }
+# The large files of a first visit (site paths): the engine worker requests
+# them as soon as it runs (static/engine/worker.js), before it has loaded the
+# engine's scripts, and the fast start takes the responses.
+FASTSTART_NAMES["early"] = [
+    f"{PACKAGES_DIR}/{FASTSTART_NAMES['snapshot_file']}",
+    f"{PYODIDE_DIR}/{FASTSTART_NAMES['compressed']['pyodide.asm.wasm']}",
+    f"{PYODIDE_DIR}/{FASTSTART_NAMES['stdlib_rest_file']}",
+]
 
 # The private snapshot options were reviewed for these Pyodide versions and
 # build ids only (FORMAT.md); an unreviewed Pyodide builds a site without

@@ -90,6 +90,8 @@ hooks.warm_up();
 // The package files whose modules are imported now: restored with the
 // memory, never read again (container.py leaves them out).
 const imported = JSON.parse(hooks.imported_package_files(sitePackages));
+// Likewise the standard library's members (stdlib.py ships the rest).
+const importedStdlib = JSON.parse(hooks.imported_stdlib_members());
 hooks.destroy();
 const gc = py.pyimport("gc");
 gc.collect();
@@ -107,6 +109,7 @@ process.stdout.write(
     memory_size: memory.length,
     site_packages: sitePackages,
     imported_files: imported,
+    imported_stdlib: importedStdlib,
     zero_filled: zeroFilled,
     timings: { boot: booted, warm: warmed - booted, total: performance.now() - t0 },
   }) + "\n",

@@ -27,7 +27,7 @@ from ..names import NAMES
 from ..paths import CACHE, HERE as BUILD_HERE, PACKAGES_DIR, PYODIDE_DIR, STATIC
 from . import FASTSTART_NAMES, HERE, REVIEWED, build_id
 from .container import SNAPSHOT_FORMAT, SNAPSHOT_PAGE, snapshot_container
-from .stdlib import STDLIB_FILE
+from .stdlib import STDLIB_FILE, write_rest_stdlib
 
 SNAPSHOT_INFO = FASTSTART_NAMES["info_file"]
 SNAPSHOT_FILE = FASTSTART_NAMES["snapshot_file"]
@@ -114,6 +114,7 @@ def make_snapshot(site: Path, pin: dict, hooks) -> dict:
             report_path.write_text(json.dumps(report))
     report = json.loads(report_path.read_text())
     shutil.copyfile(gz_path, packages / SNAPSHOT_FILE)
+    stdlib_rest_sha = write_rest_stdlib(site, report["imported_stdlib"])
     digest = hashlib.sha256(gz_path.read_bytes()).digest()
     info = {
         "format": SNAPSHOT_FORMAT,
@@ -130,6 +131,7 @@ def make_snapshot(site: Path, pin: dict, hooks) -> dict:
         "raw_sha256": report["raw_sha256"],
         "memory_size": report["memory_size"],
         "package_files": len(files),
+        "stdlib_rest_sha256": stdlib_rest_sha,
         "known_case": hooks.known_case(),
     }
     (packages / SNAPSHOT_INFO).write_text(json.dumps(info, indent=1) + "\n")

@@ -1,6 +1,8 @@
 """The site's standard library: the members of the pinned python_stdlib.zip
 the site can ever import (``stdlib_closure.mjs`` + ``stdlib_closure.py``
-beside this file), byte for byte, in their own zip.
+beside this file), byte for byte, in their own zip; and the fast start's
+share of it, the members whose modules the memory snapshot has not imported
+(``write_rest_stdlib``).
 """
 
 from __future__ import annotations
@@ -18,6 +20,7 @@ from ..paths import CACHE, PACKAGES_DIR, PYODIDE_DIR
 from . import FASTSTART_NAMES, HERE
 
 STDLIB_FILE = FASTSTART_NAMES["stdlib_file"]
+STDLIB_REST_FILE = FASTSTART_NAMES["stdlib_rest_file"]
 STDLIB_TOOLS = (HERE / "stdlib_closure.mjs", HERE / "stdlib_closure.py")
 
 
@@ -75,3 +78,31 @@ def write_stdlib(pyodide_dir: Path, site: Path, pin: dict) -> str:
     full, kept = source.stat().st_size, out.stat().st_size
     log(f"standard library: {len(members)} of {len(names)} members, {kept / 1e6:.2f} of {full / 1e6:.2f} MB")
     return STDLIB_FILE
+
+
+def write_rest_stdlib(site: Path, imported: list[str]) -> str:
+    """site/pyodide/noblegap-stdlib-rest.zip: the site's standard library
+    without the members whose modules the snapshot has imported (``imported``,
+    from ``engine_hooks.imported_stdlib_members``); returns its sha256.
+
+    The restored engine never reads those again: their code is in the saved
+    memory, and ``engine_hooks.after_restore`` makes the import system re-read
+    the zip's directory. Byte for byte, in the original order, deterministic.
+    """
+    source = site / PYODIDE_DIR / STDLIB_FILE
+    out = site / PYODIDE_DIR / STDLIB_REST_FILE
+    with zipfile.ZipFile(source) as zin:
+        unknown = set(imported) - set(zin.namelist())
+        if unknown:
+            raise BuildError(f"the snapshot imported {sorted(unknown)[:3]}, which {STDLIB_FILE} does not hold")
+        with zipfile.ZipFile(out, "w") as zout:
+            for info in zin.infolist():
+                if info.filename in imported:
+                    continue
+                copy = zipfile.ZipInfo(info.filename, date_time=info.date_time)
+                copy.external_attr = info.external_attr
+                copy.compress_type = zipfile.ZIP_DEFLATED
+                zout.writestr(copy, zin.read(info), compresslevel=9)
+    log(f"standard library for the fast start: {len(zin.namelist()) - len(set(imported))} members "
+        f"not imported by the snapshot, {out.stat().st_size / 1e6:.2f} of {source.stat().st_size / 1e6:.2f} MB")
+    return sha256_file(out)

@@ -159,6 +159,17 @@ def test_snapshot_listing_a_file_outside_site_packages_falls_back_visibly(page, 
     assert "bad file" in page.inner_text("#engine-status")
 
 
+def test_other_standard_library_falls_back_visibly(page, context, server, site_dir):
+    # The fast start's standard library (only what the snapshot has not
+    # imported) must be the one the sidecar names: the site's whole one in
+    # its place is refused before Python resumes.
+    whole = (site_dir / "pyodide" / "noblegap-stdlib.zip").read_bytes()
+    context.route("**/pyodide/noblegap-stdlib-rest.zip", lambda route: route.fulfill(
+        status=200, body=whole, headers={"Content-Type": "application/zip"}))
+    _fallback_checks(page, server)
+    assert "noblegap-stdlib-rest.zip is not the one" in page.inner_text("#engine-status")
+
+
 def test_missing_snapshot_falls_back_visibly(page, context, server):
     context.route(SNAPSHOT_INFO, lambda route: route.fulfill(status=404, body="not found"))
     _fallback_checks(page, server)
@@ -203,8 +214,10 @@ def test_snapshot_start_downloads_each_file_once_and_no_wheel(page, server):
     wait_live(page, 0)
     assert page.get_attribute("body", "data-engine-mode") == "snapshot"
     names = [url.rsplit("/", 1)[-1].split("?")[0] for url in seen]
-    for name in ["pyodide.asm.wasm.gzip", "pyodide.asm.mjs", "noblegap-stdlib.zip", "noblegap-snapshot.gzip"]:
+    for name in ["pyodide.asm.wasm.gzip", "pyodide.asm.mjs", "noblegap-stdlib-rest.zip", "noblegap-snapshot.gzip"]:
         assert names.count(name) == 1, (name, names)
+    # only the standard library the snapshot has not imported
+    assert "noblegap-stdlib.zip" not in names, names
     # the runtime comes pre-compressed, the plain binary is not fetched
     assert "pyodide.asm.wasm" not in names, names
     assert not [n for n in names if n.endswith(".whl")], names

@@ -13,7 +13,7 @@ from site_build.common import BuildError
 from site_build.faststart import FASTSTART_NAMES, REVIEWED, build_id
 from site_build.faststart.container import SNAPSHOT_FORMAT, SNAPSHOT_MAGIC, SNAPSHOT_PAGE, snapshot_container
 from site_build.faststart.snapshot import SNAPSHOT_INFO
-from site_build.faststart.stdlib import STDLIB_FILE
+from site_build.faststart.stdlib import STDLIB_FILE, STDLIB_REST_FILE
 from site_build.names import NAMES, read_names
 
 
@@ -268,6 +268,35 @@ def test_site_stdlib_is_a_byte_identical_subset_of_pyodides(site):
             init = "/".join(parts[:i]) + "/__init__.py"
             assert init in kept or init not in set(zipfile.ZipFile(official).namelist()), init
     assert "python_stdlib.zip" not in {p.name for p in (site / "pyodide").iterdir()}
+
+
+def test_fast_start_stdlib_is_the_site_stdlib_less_what_the_snapshot_imported(site, snapshot_info):
+    # The fast start loads only the members whose modules are not in the
+    # saved memory: byte for byte, in the site stdlib's order, the file the
+    # sidecar names by sha256; the engine's own imports are left out.
+    rest_path = site / "pyodide" / STDLIB_REST_FILE
+    assert snapshot_info["stdlib_rest_sha256"] == sha256(rest_path)
+    with zipfile.ZipFile(site / "pyodide" / STDLIB_FILE) as full, zipfile.ZipFile(rest_path) as rest:
+        names = rest.namelist()
+        assert names == [n for n in full.namelist() if n in set(names)]
+        for name in names:
+            assert rest.read(name) == full.read(name), name
+        left_out = set(full.namelist()) - set(names)
+    for imported in ["json/__init__.py", "json/decoder.py", "fractions.py", "_pyodide/_base.py"]:
+        assert imported in left_out, imported
+    assert "pdb.py" in names and "doctest.py" in names       # in the closure, never imported by the engine
+    assert rest_path.stat().st_size < 0.7 * (site / "pyodide" / STDLIB_FILE).stat().st_size
+
+
+def test_early_requests_are_the_large_files_of_the_fast_start(site, manifest):
+    # what the worker requests before loading the engine's scripts: files of
+    # the site, in the offline copy's list, the fast start's and nothing else
+    early = FASTSTART_NAMES["early"]
+    assert early == [f"{paths.PACKAGES_DIR}/{FASTSTART_NAMES['snapshot_file']}",
+                     f"{paths.PYODIDE_DIR}/{FASTSTART_NAMES['compressed']['pyodide.asm.wasm']}",
+                     f"{paths.PYODIDE_DIR}/{STDLIB_REST_FILE}"]
+    for path in early:
+        assert (site / path).is_file() and path in manifest["files"], path
 
 
 def test_names_json_is_the_builds_names_written_once(site):

@@ -79,6 +79,9 @@ export function runtimeOptions({ indexURL, lockFileURL, stdout, stderr }) {
  * @param {Promise|false} [options.faststart] the faststart/start.mjs module (a
  *   promise of it), or false for the normal start only; by default imported
  *   when names.json lists a fast start
+ * @param {object} [options.early] the worker's early requests of the fast
+ *   start's files ({take, abort}, worker.js), or null; those the fast
+ *   start has not taken are stopped when it fails
  * @param {string} [options.snapshotInfoURL] the snapshot's JSON sidecar (fast start)
  * @param {Function} [options.fetch] fetch-like (url, init) => Response, for the
  *   files the engine fetches itself (Node passes one that reads files and
@@ -117,6 +120,7 @@ export async function startEngine(options = {}) {
       const { startFromSnapshot } = await fast;
       engine = await startFromSnapshot(ctx);
     } catch (err) {
+      options.early?.abort();
       note = `${FALLBACK_LABEL}: ${err && err.message ? err.message.split("\n")[0] : err}`;
       stderr(`noblegap: ${note}`);
       phase("normal start", note);

@@ -26,7 +26,42 @@ const { messages: MSG, calls: CALLS } = NAMES;
 const faststart = NAMES.faststart ? import("./faststart/start.mjs") : false;
 if (faststart) faststart.catch(() => {});
 
-const post = (msg) => self.postMessage(msg);
+/**
+ * {take(url), abort(url?)}: take hands over the response promise for a URL
+ * once (or null); abort(url) stops that request, abort() every one not taken.
+ */
+function earlyRequests(paths) {
+  const requests = new Map();
+  for (const path of paths) {
+    const url = new URL(`../../${path}`, import.meta.url).href;
+    const stop = new AbortController();
+    const response = fetch(url, { credentials: "same-origin", signal: stop.signal });
+    response.catch(() => {});
+    requests.set(url, { response, stop, taken: false });
+  }
+  return {
+    take(url) {
+      const request = requests.get(url);
+      if (!request || request.taken) return null;
+      request.taken = true;
+      return request.response;
+    },
+    abort(url) {
+      for (const [key, request] of requests) {
+        if (url === undefined ? !request.taken : key === url) request.stop.abort();
+      }
+    },
+  };
+}
+
+// Once a fatal message is out, no progress message follows it (a runtime
+// file requested early can fail before the engine has said what it does).
+let fatalPosted = false;
+const post = (msg) => {
+  if (msg.type === MSG.fatal) fatalPosted = true;
+  else if (fatalPosted && msg.type === MSG.progress) return;
+  self.postMessage(msg);
+};
 
 // A Python runtime file that fails to arrive is reported at once, so the page
 // can say what failed (a stalled one is caught by the page's own timer).
@@ -34,7 +69,7 @@ const runtimeFetch = self.fetch.bind(self);
 self.fetch = async (input, init) => {
   const url = String(input && input.url ? input.url : input);
   const failed = (why) => url.includes("/pyodide/") &&
-    post({ type: "fatal", message: `a runtime file did not arrive (${url.split("/").pop()}: ${why})` });
+    post({ type: MSG.fatal, message: `a runtime file did not arrive (${url.split("/").pop()}: ${why})` });
   try {
     const response = await runtimeFetch(input, init);
     if (!response.ok) failed(`HTTP ${response.status}`);
@@ -44,6 +79,15 @@ self.fetch = async (input, init) => {
     throw err;
   }
 };
+
+// A first visit's large files (names.json "faststart.early"), requested now
+// (through the wrapper above) rather than once the engine's scripts have
+// loaded; the fast start takes them. Not when the offline copy serves the
+// page (boot.js names the worker so): the fast start then reads the files
+// it unpacked there.
+const early = faststart && !String(self.name ?? "").includes("offline copy")
+  ? earlyRequests(NAMES.faststart.early ?? [])
+  : null;
 
 const fatal = (err) => {
   const message = err && err.message ? err.message : String(err);
@@ -58,6 +102,7 @@ self.onunhandledrejection = (event) => fatal(event.reason);
 const engineReady = import("./engine.mjs").then(({ startEngine }) =>
   startEngine({
     faststart,
+    early,
     onProgress: ({ phase, fraction, label }) => post({ type: MSG.progress, phase, fraction, label }),
   }),
 );

@@ -187,10 +187,11 @@ export function applyBase({ header, pages }, target, base) {
  * that module. With packedURL (the build's gzip twin of the binary) the
  * compile reads the twin through the browser's DecompressionStream, so the
  * download is the compressed size whatever the host does; should that
- * fail, the plain binary is compiled instead. Under Node Pyodide reads the
- * file and instantiates the bytes.
+ * fail, the plain binary is compiled instead. packedResponse: a promise of
+ * the twin's response requested earlier (worker.js), used instead of a new
+ * request. Under Node Pyodide reads the file and instantiates the bytes.
  */
-export function captureRuntimeWasm(wasmURL = null, packedURL = null) {
+export function captureRuntimeWasm(wasmURL = null, packedURL = null, packedResponse = null) {
   const W = globalThis.WebAssembly;
   const original = {
     fetch: globalThis.fetch,
@@ -220,7 +221,7 @@ export function captureRuntimeWasm(wasmURL = null, packedURL = null) {
     const compile = async () => {
       if (packedURL === null || typeof DecompressionStream !== "function") return plain();
       try {
-        const response = await original.fetch.call(globalThis, packedURL, { credentials: "same-origin" });
+        const response = await (packedResponse ?? original.fetch.call(globalThis, packedURL, { credentials: "same-origin" }));
         if (!response.ok || !response.body) throw new Error(`HTTP ${response.status}`);
         const body = response.body.pipeThrough(new DecompressionStream("gzip"));
         return await W.compileStreaming(new Response(body, { headers: { "Content-Type": "application/wasm" } }));
@@ -268,6 +269,68 @@ export function captureRuntimeWasm(wasmURL = null, packedURL = null) {
       globalThis.fetch = original.fetch;
       W.instantiate = original.instantiate;
       if (original.instantiateStreaming) W.instantiateStreaming = original.instantiateStreaming;
+    },
+  };
+}
+
+/**
+ * Until release(): a fetch of url (in a browser; the fast start's standard
+ * library, which Pyodide fetches itself) is read whole and its sha256
+ * compared with the one expected resolves to. checked settles once that is
+ * known: resolved when they match, else rejected with the reason; the
+ * caller refuses the snapshot then. The bytes are handed on either way (a
+ * rejection here would surface inside Pyodide, unhandled), and a failed
+ * download fails as it would without this wrapper. earlyResponse: a
+ * promise of the response to the same URL requested earlier, used for the
+ * first such fetch instead of a new request. Under Node Pyodide reads
+ * the file itself: checked is resolved at once.
+ */
+export function checkFetched(url, expected, earlyResponse = null) {
+  const original = globalThis.fetch;
+  if (typeof location === "undefined" || typeof original !== "function") {
+    return { checked: Promise.resolve(), release() {} };
+  }
+  // (a sidecar that fails rejects expected: the caller hears of it elsewhere)
+  expected.catch(() => {});
+  let settle;
+  const checked = new Promise((resolve, reject) => (settle = { resolve, reject }));
+  checked.catch(() => {});
+  const name = url.split("/").pop();
+  let released = false;
+  const wrapper = function (input, init) {
+    let href = null;
+    try {
+      href = new URL(String(input instanceof Request ? input.url : input), location).href;
+    } catch {
+      // not a URL this wrapper is about
+    }
+    if (released || href !== url) return original.call(this, input, init);
+    // the first request may have been made already (worker.js)
+    const fetched = earlyResponse ?? original.call(this, input, init);
+    earlyResponse = null;
+    fetched.catch((err) => settle.reject(err));
+    return fetched.then(async (response) => {
+      if (!response.ok) {
+        settle.reject(new Error(`${name}: HTTP ${response.status}`));
+        return response;
+      }
+      const bytes = new Uint8Array(await response.arrayBuffer());
+      Promise.all([sha256Hex(bytes), expected]).then(
+        ([actual, wanted]) => {
+          if (actual === wanted) settle.resolve();
+          else settle.reject(new Error(`${name} is not the one the snapshot was made with`));
+        },
+        (err) => settle.reject(err),
+      );
+      return new Response(bytes, { status: response.status, headers: response.headers });
+    });
+  };
+  globalThis.fetch = wrapper;
+  return {
+    checked,
+    release() {
+      released = true;
+      if (globalThis.fetch === wrapper) globalThis.fetch = original;
     },
   };
 }

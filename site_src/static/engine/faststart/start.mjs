@@ -18,7 +18,15 @@
 // state, and engine_hooks.known_case_error() must find the answer the build
 // recorded.
 import { NAMES, PYODIDE_VERSION, bindApi, loadPyodide, runtimeOptions } from "../engine.mjs";
-import { applyBase, applyPages, baseFromMemory, captureRuntimeWasm, parseSnapshot, sha256Hex } from "./restore.mjs";
+import {
+  applyBase,
+  applyPages,
+  baseFromMemory,
+  captureRuntimeWasm,
+  checkFetched,
+  parseSnapshot,
+  sha256Hex,
+} from "./restore.mjs";
 
 const FAST = NAMES.faststart;
 
@@ -48,16 +56,20 @@ const offlineCopy = typeof self !== "undefined" && String(self.name ?? "").inclu
 
 /**
  * Unpack a gzip response: {bytes, sha256, packed: true}, the sha256 being
- * that of the compressed bytes as they came.
+ * that of the compressed bytes as they came. The body is unpacked while it
+ * downloads (one branch of it), and kept whole for the hash (the other), so
+ * nothing is left to unpack once its last byte is in.
  */
-async function gunzipResponse(response) {
-  if (!response.ok) throw new Error(`snapshot file: HTTP ${response.status}`);
-  // whole first (drained off this thread), then hashed and unpacked at once
-  const packed = new Uint8Array(await response.arrayBuffer());
-  const hashed = sha256Hex(packed);
-  const stream = new Blob([packed]).stream().pipeThrough(new DecompressionStream("gzip"));
-  const bytes = new Uint8Array(await new Response(stream).arrayBuffer());
-  return { bytes, sha256: await hashed, packed: true };
+async function gunzipResponse(response, mark = () => {}) {
+  if (!response.ok || !response.body) throw new Error(`snapshot file: HTTP ${response.status}`);
+  const [kept, unpacked] = response.body.tee();
+  const packed = new Response(kept).arrayBuffer().then((buffer) => {
+    mark("snapshot downloaded");
+    return sha256Hex(new Uint8Array(buffer));
+  });
+  const bytes = new Response(unpacked.pipeThrough(new DecompressionStream("gzip"))).arrayBuffer();
+  const [sha256, raw] = await Promise.all([packed, bytes]);
+  return { bytes: new Uint8Array(raw), sha256, packed: true };
 }
 
 /** The container as the offline copy holds it, unpacked: {bytes, sha256, packed: false}. */
@@ -92,7 +104,7 @@ async function snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn) {
   return { info, lock: JSON.parse(new TextDecoder().decode(lockBytes)) };
 }
 
-export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark }) {
+export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark, early }) {
   snapshotInfoURL ??= new URL(`../../../${NAMES.packages_dir}/${FAST.info_file}`, import.meta.url).href;
   phase("fetch runtime", "Fetching the Python runtime and the prepared engine");
   // loadPyodide starts at once (the runtime downloads meanwhile); it waits
@@ -106,14 +118,19 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   const snapshotBase = new URL(snapshotInfoURL, "file:///");
   const guessURL = new URL(FAST.snapshot_file, snapshotBase).href;
   const stop = new AbortController();
-  const unpack = (url) => fetchFn(url, { signal: stop.signal }).then(gunzipResponse);
+  // the worker's early request when it made one (worker.js), else our own
+  const request = (url) => early?.take(url) ?? fetchFn(url, { signal: stop.signal });
+  const unpack = (url) => request(url).then((response) => gunzipResponse(response, mark));
   const plainURL = new URL(FAST.unpacked_snapshot_file, snapshotBase).href;
-  const early = offlineCopy
+  const guessed = offlineCopy
     ? fetchFn(plainURL, { signal: stop.signal }).then(plainResponse).catch(() => unpack(guessURL))
     : unpack(guessURL);
-  early.catch(() => {});
-  // No usable sidecar (the normal start follows): stop the download.
-  checked.catch(() => stop.abort());
+  guessed.catch(() => {});
+  // No usable sidecar (the normal start follows): stop the downloads.
+  checked.catch(() => {
+    stop.abort();
+    early?.abort(guessURL);
+  });
   // Pyodide needs only the memory's size to compile and instantiate its
   // WebAssembly, and reads the memory itself only after fsInit below has
   // returned: so it gets a zero-filled buffer of the sidecar's size at once,
@@ -126,7 +143,7 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
     const { info } = await checked;
     mark("snapshot info checked");
     const url = new URL(info.file, snapshotBase).href;
-    const { bytes, sha256, packed } = await (url === guessURL ? early : unpack(url));
+    const { bytes, sha256, packed } = await (url === guessURL ? guessed : unpack(url));
     mark(packed ? "snapshot unpacked" : "snapshot read unpacked");
     if (bytes.length !== info.raw_size) {
       throw new Error(`snapshot unpacks to ${bytes.length} bytes, its sidecar says ${info.raw_size}`);
@@ -147,7 +164,14 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   const runtimeBase = typeof location === "undefined" ? null : new URL(indexURL, location);
   const wasmURL = runtimeBase && new URL("pyodide.asm.wasm", runtimeBase).href;
   const packed = offlineCopy ? null : FAST.compressed?.["pyodide.asm.wasm"];
-  const capture = captureRuntimeWasm(wasmURL, runtimeBase && packed ? new URL(packed, runtimeBase).href : null);
+  // The standard library: only the members the snapshot has not imported
+  // (names.json "stdlib_rest_file"), checked against the sidecar.
+  const stdLibURL = runtimeBase
+    ? new URL(FAST.stdlib_rest_file, runtimeBase).href
+    : `${indexURL.endsWith("/") ? indexURL : indexURL + "/"}${FAST.stdlib_rest_file}`;
+  const stdlib = checkFetched(stdLibURL, checked.then(({ info }) => info.stdlib_rest_sha256), early?.take(stdLibURL));
+  const packedURL = runtimeBase && packed ? new URL(packed, runtimeBase).href : null;
+  const capture = captureRuntimeWasm(wasmURL, packedURL, packedURL && early?.take(packedURL));
   // What needs no runtime is written as soon as the container is here:
   // Pyodide's header and the pages past the base.
   const paged = Promise.all([container, memory]).then(([snapshot, target]) => {
@@ -159,6 +183,7 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   let containerError = null;
   const pyodide = await loadPyodide({
     ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
+    stdLibURL,
     _loadSnapshot: memory,
     // Runs once the WebAssembly is instantiated and before Python resumes
     // from the memory: the base pages are rebuilt from the runtime's fresh
@@ -172,6 +197,8 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
       capture.release();
       try {
         if (!runtimeMemory) throw new Error("the runtime's memory was not seen");
+        await stdlib.checked;
+        stdlib.release();
         const snapshot = await paged;
         const base = baseFromMemory(runtimeMemory.buffer, snapshot);
         if ((await sha256Hex(base)) !== snapshot.header.base.sha256) {
@@ -191,7 +218,10 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
     .catch((err) => {
       throw containerError ?? err;
     })
-    .finally(() => capture.release());
+    .finally(() => {
+      capture.release();
+      stdlib.release();
+    });
   if (containerError) throw containerError;
   const { info } = await checked;
   phase("check engine");
