@@ -277,8 +277,13 @@ async function compute() {
   const sent = early && early.key === key ? early.reply : null;
   early = null;
   const superseded = () => pending || keyOf(readInputs()) !== key;
+  let whole = sent;
   if (headlineFirst && !sent) {
-    const first = await call(NAMES.calls.run, { calc: schema.name, inputs, headline_only: true });
+    // Both calls go at once: the worker starts the whole result as soon as
+    // the headline is out, while this thread draws the headline.
+    const firstReply = call(NAMES.calls.run, { calc: schema.name, inputs, headline_only: true });
+    whole = call(NAMES.calls.run, { calc: schema.name, inputs });
+    const first = await firstReply;
     if (superseded()) {
       clearTimeout(pendTimer);
       resultBox.classList.remove("is-stale");
@@ -300,7 +305,7 @@ async function compute() {
     resultBox.classList.remove("is-stale");
     renderHeadline(first);
   }
-  const reply = await (sent ?? call(NAMES.calls.run, { calc: schema.name, inputs }));
+  const reply = await (whole ?? call(NAMES.calls.run, { calc: schema.name, inputs }));
   clearTimeout(pendTimer);
   resultBox.classList.remove("is-stale");
   busy = false;
