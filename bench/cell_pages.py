@@ -84,6 +84,8 @@ def cpython_timings(n=30):
     for calc in EDITS:
         ex = api.get(calc).example
         out[f"{calc} page (CPython)"] = timed(lambda: api.run(calc, ex))
+        out[f"{calc} page, headline only (CPython)"] = timed(
+            lambda: api.run(calc, ex, headline_only=True))
     lay = galvanic.Layout("anode", 1, math.pi * 25e-6, 10.0, 5e-3, surrounds=False)
     out["one assessment, seawater (CPython)"] = timed(lambda: galvanic.assess(
         "carbon_steel", "C95800", "seawater_flowing", lambda rule: lay,
