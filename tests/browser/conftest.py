@@ -116,7 +116,7 @@ def wait_live(page, seq_after=0):
     (a whole one: not the headline phase of a typed edit, test_headline_first.py)."""
     wait_for(page,
              "(s) => { const r = document.getElementById('result');"
-             " return document.body.dataset.engine === 'ready' && !!r &&"
+             " return !!document.body && document.body.dataset.engine === 'ready' && !!r &&"
              " (r.dataset.state === 'live' || r.dataset.state === 'error') &&"
              " r.dataset.phase !== 'headline' &&"
              " Number(r.dataset.resultSeq) > s; }", arg=seq_after)
