@@ -501,13 +501,7 @@ def _result(params, page):
         raise InputError(f"Unknown coated side {params['coated_side']!r}.",
                          field="coated_side", value=params["coated_side"],
                          allowed=", ".join(SIDES))
-    n = compute_numbers(**params, page=page)
-    n["_conductivity_entered"] = (params["conductivity"] is not None
-                                  or params["resistivity"] is not None)
-    rep = report(n, page=page)
-    out = {k: v for k, v in n.items() if not k.startswith("_")}
-    out["display"] = rep.to_dict()
-    return out
+    return members.page_result(compute_numbers, report, params, page)
 
 
 def compute_holiday(coated, other, environment, coated_side, holiday_count, inspected_area,

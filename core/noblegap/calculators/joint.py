@@ -135,13 +135,7 @@ def report(n, page=True):
 
 
 def _result(params, page):
-    n = compute_numbers(**params, page=page)
-    n["_conductivity_entered"] = (params["conductivity"] is not None
-                                  or params["resistivity"] is not None)
-    rep = report(n, page=page)
-    out = {k: v for k, v in n.items() if not k.startswith("_")}
-    out["display"] = rep.to_dict()
-    return out
+    return members.page_result(compute_numbers, report, params, page)
 
 
 def compute_joint(first, first_area, first_thickness, second, second_area, second_thickness,

@@ -727,3 +727,15 @@ def add_caveats(rep, a, wet=True):
         rep.warn(w)
     for w in known_gaps(a):
         rep.warn(w)
+
+
+def page_result(compute_numbers, report, params, page):
+    """A rate calculator's result: its numbers (without the private ``_`` keys) and
+    the report built from them, with whether a conductivity was typed."""
+    n = compute_numbers(**params, page=page)
+    n["_conductivity_entered"] = (params["conductivity"] is not None
+                                  or params["resistivity"] is not None)
+    rep = report(n, page=page)
+    out = {k: v for k, v in n.items() if not k.startswith("_")}
+    out["display"] = rep.to_dict()
+    return out
