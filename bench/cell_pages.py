@@ -30,6 +30,12 @@ before each call.
 ``--before-site DIR`` (another build, e.g. of the main branch) is timed in the
 same run, page by page in turn with the same edits, and printed beside it.
 
+A third figure times one calculation inside the page's worker: the same
+page's inputs sent straight to the worker through static/engine-client.js,
+each with a value of the edited field not used before, timed by the worker
+itself (the reply's ``ms``), the headline path (verdict and local rate with
+its low / likely / high range) and the whole result apart.
+
 Target (issue 16): one calculation, uncertainty included, ≤ 16 ms p95 in the
 browser.
 """
@@ -111,6 +117,47 @@ def _wait_whole(page, seq, timeout_s=60):
         page.wait_for_timeout(5)
 
 
+#: One calculation timed inside the page's Pyodide worker: the worker's own
+#: ``ms`` for the call (static/engine/worker.js), from the moment it takes the call
+#: to the reply it posts, so neither the message queues nor the page's drawing
+#: count. "headline" is the headline path (the verdict and the local rate with
+#: its low / likely / high range: the uncertainty included); "whole result" is
+#: the page's whole result (every alternative alloy, every mitigation, the
+#: charts and the page text).
+WORKER_CALLS = """async ([calc, inputs, field, values]) => {
+  const { connect } = await import('./static/engine-client.js');
+  const client = await connect();
+  await client.ready;
+  const out = { 'headline': [], 'whole result': [] };
+  for (const value of values) {
+    for (const [phase, headline_only] of [['headline', true], ['whole result', false]]) {
+      const reply = await client.call('run', { calc, inputs: { ...inputs, [field]: value }, headline_only });
+      if (!reply.ok) throw new Error(JSON.stringify(reply.error));
+      out[phase].push(reply.ms);
+    }
+  }
+  return out;
+}"""
+
+
+#: The field varied for the worker's calls: a wetted area (no value the keystroke
+#: edits used, and every one a new cell, so none comes from the core's memory).
+WORKER_EDITS = {
+    "fastener": ("plate_area", lambda i: f"{1.0 + 0.001 * i:.3f} m²"),
+    "holiday": ("coated_area", lambda i: f"{3.0 + 0.001 * i:.3f} m²"),
+    "joint": ("first_area", lambda i: f"{0.5 + 0.001 * i:.3f} m²"),
+}
+
+
+def worker_calls(page, calc, n):
+    """``{phase: [ms]}`` for ``n`` calculations not computed before on this page."""
+    from noblegap import api
+    field, value = WORKER_EDITS[calc]
+    inputs = {k: str(v) for k, v in api.calculators()[calc].example.items() if v is not None}
+    values = [value(i) for i in range(n)]
+    return page.evaluate(WORKER_CALLS, [calc, inputs, field, values])
+
+
 def browser_timings(pages, edits, sites):
     """``sites`` {label: built site dir or None (site/, built if needed)}; the sites
     are timed page by page in turn, so a change in the machine's load falls on both."""
@@ -154,6 +201,9 @@ def browser_timings(pages, edits, sites):
                         first.append(float(h if h is not None else v))
                 out.setdefault(f"{calc} page, keystroke to headline (Chromium)", {})[label] = first
                 out.setdefault(f"{calc} page, keystroke to whole result (Chromium)", {})[label] = lat
+                for phase, ms in worker_calls(page, calc, edits).items():
+                    out.setdefault(f"{calc}, one calculation in the worker: {phase}",
+                                   {})[label] = ms
                 page.close()
         browser.close()
     for what, n in missed.items():

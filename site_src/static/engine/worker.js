@@ -230,7 +230,11 @@ self.onmessage = async (event) => {
   }
   try {
     if (LAZY_PACKAGES[fn]) await engine.pyodide.loadPackage(LAZY_PACKAGES[fn], { messageCallback: () => {} });
-    post({ id, ...answer(engine, fn, args ?? {}) });
+    // ms: the call's own time in this worker (the Python work and the JSON
+    // round trip, not the message queues), read by bench/cell_pages.py.
+    const t0 = performance.now();
+    const reply = answer(engine, fn, args ?? {});
+    post({ id, ms: performance.now() - t0, ...reply });
   } catch (err) {
     post({
       id,
