@@ -26,7 +26,9 @@ NAMES = {
     "pyodide_dir": PYODIDE_DIR,
     "lock_file": "noblegap-lock.json",
     # The worker protocol (static/engine/worker.js describes it).
-    "messages": {"progress": "progress", "ready": "ready", "fatal": "fatal"},
+    # notice: after ready, something the engine status line must say (the
+    # fast start's deferred standard library had to be replaced).
+    "messages": {"progress": "progress", "ready": "ready", "fatal": "fatal", "notice": "notice"},
     "calls": {"run": "run", "describe": "describe"},
     "modes": {"normal": "normal", "faststart": "snapshot"},
 }

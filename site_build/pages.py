@@ -21,6 +21,12 @@ CSP = (
     "connect-src 'self'; img-src 'self' data: blob:; style-src 'self'; "
     "object-src 'none'; base-uri 'self'; form-action 'self'"
 )
+#: The engine worker's own policy (a worker takes the policy of its script's
+#: response, never the page's): the same, and blob: scripts, because the fast
+#: start imports the runtime's script from its unpacked gzip twin
+#: (engine/faststart/start.mjs). The pages keep ``script-src 'self'``.
+WORKER_SCRIPT = "static/engine/worker.js"
+WORKER_CSP = CSP.replace("script-src 'self'", "script-src 'self' blob:")
 
 
 def import_core(module: str = "api"):

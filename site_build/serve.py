@@ -13,7 +13,7 @@ import sys
 from functools import partial
 from pathlib import Path
 
-from .pages import CSP
+from .pages import CSP, WORKER_CSP, WORKER_SCRIPT
 from .paths import SITE
 
 MIME_TYPES = {
@@ -35,7 +35,8 @@ class SiteHandler(http.server.SimpleHTTPRequestHandler):
     extensions_map = {**http.server.SimpleHTTPRequestHandler.extensions_map, **MIME_TYPES}
 
     def end_headers(self):
-        self.send_header("Content-Security-Policy", CSP)
+        worker = self.path.split("?", 1)[0].endswith("/" + WORKER_SCRIPT)
+        self.send_header("Content-Security-Policy", WORKER_CSP if worker else CSP)
         self.send_header("Cache-Control", "no-cache")
         self.send_header("X-Content-Type-Options", "nosniff")
         super().end_headers()

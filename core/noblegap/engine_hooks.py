@@ -64,6 +64,18 @@ def after_restore() -> None:
     importlib.invalidate_caches()
 
 
+def stdlib_zip_path() -> str:
+    """The standard library's zip on ``sys.path`` (Pyodide's ``/lib/pythonXY.zip``),
+    which the fast start fills in after the first result (engine/faststart/start.mjs)."""
+    return next(p for p in sys.path if p.endswith(".zip"))
+
+
+def stdlib_arrived() -> None:
+    """The standard library's zip has been written in full: the import system
+    reads its directory again."""
+    importlib.invalidate_caches()
+
+
 def freeze() -> None:
     """Once the engine is imported and warm (both starts): the modules, unit
     registry and tables live as long as the engine, so the cyclic garbage

@@ -135,6 +135,10 @@ function attach(w) {
     if (msg.type === NAMES.messages.progress) return showProgress(msg);
     if (msg.type === NAMES.messages.ready) return engineReady(msg);
     if (msg.type === NAMES.messages.fatal) return engineFailed(msg.message);
+    if (msg.type === NAMES.messages.notice) {
+      engineStatus.textContent = `Live engine ready (${msg.note}).`;
+      return undefined;
+    }
     if (msg.id !== undefined && waiting.has(msg.id)) {
       const entry = waiting.get(msg.id);
       waiting.delete(msg.id);

@@ -17,7 +17,7 @@ const UNPACK = new Map(Object.entries(BUILD.unpack ?? {}).map(([plain, packed]) 
   new URL(plain, SCOPE).href,
   new URL(packed, SCOPE).href,
 ]));
-const TYPES = { ".wasm": "application/wasm", ".container": "application/octet-stream" };
+const TYPES = { ".wasm": "application/wasm", ".mjs": "text/javascript", ".container": "application/octet-stream" };
 
 // The plain file from its gzip twin in the cache, or null.
 async function unpacked(cache, plainURL) {

@@ -159,15 +159,33 @@ def test_snapshot_listing_a_file_outside_site_packages_falls_back_visibly(page, 
     assert "bad file" in page.inner_text("#engine-status")
 
 
-def test_other_standard_library_falls_back_visibly(page, context, server, site_dir):
+def test_other_standard_library_is_replaced_visibly(page, context, server, site_dir):
     # The fast start's standard library (only what the snapshot has not
-    # imported) must be the one the sidecar names: the site's whole one in
-    # its place is refused before Python resumes.
-    whole = (site_dir / "pyodide" / "noblegap-stdlib.zip").read_bytes()
+    # imported) is fetched after the first result and must be the one the
+    # sidecar names: other bytes are refused, the site's whole standard
+    # library is loaded in its place, and the status line says so. A call
+    # that imports from it (a typo's suggestions need difflib) still works.
+    other = (site_dir / "pyodide" / "noblegap-stdlib.zip").read_bytes()[:4096]
     context.route("**/pyodide/noblegap-stdlib-rest.zip", lambda route: route.fulfill(
-        status=200, body=whole, headers={"Content-Type": "application/zip"}))
-    _fallback_checks(page, server)
-    assert "noblegap-stdlib-rest.zip is not the one" in page.inner_text("#engine-status")
+        status=200, body=other, headers={"Content-Type": "application/zip"}))
+    page.goto(f"{server}/pair.html?alloy_a=kryptonite&alloy_b=5083&environment=marine_splash")
+    wait_for(page, "() => document.getElementById('engine-status').textContent"
+                   ".includes('noblegap-stdlib-rest.zip is not the one')")
+    assert page.get_attribute("body", "data-engine-mode") == "snapshot"
+    assert "whole standard library was loaded instead" in page.inner_text("#engine-status")
+    wait_for(page, "() => document.getElementById('result').dataset.state === 'error'")
+    assert "Did you mean: Graphite?" in page.inner_text("form")
+
+
+def test_a_first_call_that_needs_the_deferred_standard_library_is_answered(page, server):
+    # The rest of the standard library arrives after the engine is ready; a
+    # shared link whose first answer imports from it (a typo's suggestions
+    # need difflib) is answered again once it is there, never with an error.
+    page.goto(f"{server}/pair.html?alloy_a=kryptonite&alloy_b=5083&environment=marine_splash")
+    wait_for(page, "() => document.getElementById('result').dataset.state === 'error'")
+    assert page.get_attribute("body", "data-engine-mode") == "snapshot"
+    assert "Did you mean: Graphite?" in page.inner_text("form")
+    assert "failed unexpectedly" not in page.inner_text("body")
 
 
 def test_missing_snapshot_falls_back_visibly(page, context, server):
@@ -214,8 +232,10 @@ def test_snapshot_start_downloads_each_file_once_and_no_wheel(page, server):
     wait_live(page, 0)
     assert page.get_attribute("body", "data-engine-mode") == "snapshot"
     names = [url.rsplit("/", 1)[-1].split("?")[0] for url in seen]
-    for name in ["pyodide.asm.wasm.gzip", "pyodide.asm.mjs", "noblegap-stdlib-rest.zip", "noblegap-snapshot.gzip"]:
+    for name in ["pyodide.asm.wasm.gzip", "pyodide.asm.mjs.gzip", "noblegap-stdlib-rest.zip", "noblegap-snapshot.gzip"]:
         assert names.count(name) == 1, (name, names)
+    # the runtime's script comes pre-compressed too
+    assert "pyodide.asm.mjs" not in names, names
     # only the standard library the snapshot has not imported
     assert "noblegap-stdlib.zip" not in names, names
     # the runtime comes pre-compressed, the plain binary is not fetched

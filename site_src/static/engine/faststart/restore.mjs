@@ -285,6 +285,46 @@ export function captureRuntimeWasm(wasmURL = null, packedURL = null, packedRespo
  * first such fetch instead of a new request. Under Node Pyodide reads
  * the file itself: checked is resolved at once.
  */
+/**
+ * Hand whoever fetches url (Pyodide, for its standard library) an empty zip
+ * archive instead, without a request; {checked, release} as checkFetched.
+ */
+export function serveEmptyZip(url) {
+  const original = globalThis.fetch;
+  // an end-of-central-directory record and nothing else: a zip with no members
+  const empty = new Uint8Array(22);
+  empty.set([0x50, 0x4b, 0x05, 0x06]);
+  let released = false;
+  const wrapper = function (input, init) {
+    let href = null;
+    try {
+      href = new URL(String(input instanceof Request ? input.url : input), location).href;
+    } catch {
+      // not a URL this wrapper is about
+    }
+    if (released || href !== url) return original.call(this, input, init);
+    return Promise.resolve(new Response(empty, { headers: { "Content-Type": "application/zip" } }));
+  };
+  globalThis.fetch = wrapper;
+  return {
+    checked: Promise.resolve(),
+    release() {
+      released = true;
+      if (globalThis.fetch === wrapper) globalThis.fetch = original;
+    },
+  };
+}
+
+/** The bytes at url once their sha256 is the one expected (a promise of it). */
+export async function fetchChecked(url, expected, fetchFn = (u, init) => fetch(u, init)) {
+  const response = await fetchFn(url, { credentials: "same-origin" });
+  const name = url.split("/").pop();
+  if (!response.ok) throw new Error(`${name}: HTTP ${response.status}`);
+  const bytes = new Uint8Array(await response.arrayBuffer());
+  if ((await sha256Hex(bytes)) !== (await expected)) throw new Error(`${name} is not the one the snapshot was made with`);
+  return bytes;
+}
+
 export function checkFetched(url, expected, earlyResponse = null) {
   const original = globalThis.fetch;
   if (typeof location === "undefined" || typeof original !== "function") {

@@ -24,7 +24,9 @@ import {
   baseFromMemory,
   captureRuntimeWasm,
   checkFetched,
+  fetchChecked,
   parseSnapshot,
+  serveEmptyZip,
   sha256Hex,
 } from "./restore.mjs";
 
@@ -72,6 +74,29 @@ async function gunzipResponse(response, mark = () => {}) {
   return { bytes: new Uint8Array(raw), sha256, packed: true };
 }
 
+/**
+ * A promise of the default export of the module whose gzip twin is at
+ * packedURL: unpacked in the worker and imported from a blob: URL. Should
+ * that fail (no stream decompression, a host error, a blocked blob:), the
+ * plain module at plainURL is imported instead.
+ */
+async function importPacked(packedURL, plainURL, early) {
+  try {
+    if (typeof DecompressionStream !== "function") throw new Error("no DecompressionStream");
+    const response = await (early?.take(packedURL) ?? fetch(packedURL, { credentials: "same-origin" }));
+    if (!response.ok || !response.body) throw new Error(`HTTP ${response.status}`);
+    const text = await new Response(response.body.pipeThrough(new DecompressionStream("gzip"))).blob();
+    const url = URL.createObjectURL(new Blob([text], { type: "text/javascript" }));
+    try {
+      return (await import(url)).default;
+    } finally {
+      URL.revokeObjectURL(url);
+    }
+  } catch {
+    return (await import(plainURL)).default;
+  }
+}
+
 /** The container as the offline copy holds it, unpacked: {bytes, sha256, packed: false}. */
 async function plainResponse(response) {
   if (!response.ok) throw new Error(`unpacked snapshot: HTTP ${response.status}`);
@@ -107,6 +132,8 @@ async function snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn) {
 export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL, fetchFn, stdout, stderr, phase, mark, early }) {
   snapshotInfoURL ??= new URL(`../../../${NAMES.packages_dir}/${FAST.info_file}`, import.meta.url).href;
   phase("fetch runtime", "Fetching the Python runtime and the prepared engine");
+  // fetch as it is before the wrappers below are put in place
+  const unwrappedFetch = globalThis.fetch;
   // loadPyodide starts at once (the runtime downloads meanwhile); it waits
   // for the memory, which is only handed over once the sidecar matches.
   const checked = snapshotInfo(snapshotInfoURL, lockFileURL, fetchFn);
@@ -165,13 +192,35 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   const wasmURL = runtimeBase && new URL("pyodide.asm.wasm", runtimeBase).href;
   const packed = offlineCopy ? null : FAST.compressed?.["pyodide.asm.wasm"];
   // The standard library: only the members the snapshot has not imported
-  // (names.json "stdlib_rest_file"), checked against the sidecar.
+  // (names.json "stdlib_rest_file"), checked against the sidecar. Resuming
+  // and the first calculations need none of them (the snapshot has imported
+  // what they use), so in the browser Pyodide is handed an empty zip at once
+  // and the file is fetched only once the snapshot is here: a first visit's
+  // bytes go to what the first result needs. `rest` installs it later in
+  // place of the empty one (see `complete` below). Under Node (the build's
+  // checks) Pyodide reads the file itself.
   const stdLibURL = runtimeBase
     ? new URL(FAST.stdlib_rest_file, runtimeBase).href
     : `${indexURL.endsWith("/") ? indexURL : indexURL + "/"}${FAST.stdlib_rest_file}`;
-  const stdlib = checkFetched(stdLibURL, checked.then(({ info }) => info.stdlib_rest_sha256), early?.take(stdLibURL));
+  const restSha = checked.then(({ info }) => info.stdlib_rest_sha256);
+  restSha.catch(() => {}); // (a bad sidecar is reported by `checked`)
+  const deferred = runtimeBase !== null;
+  const stdlib = deferred ? serveEmptyZip(stdLibURL) : checkFetched(stdLibURL, restSha);
+  const rest = deferred
+    ? container.then(() => fetchChecked(stdLibURL, restSha, (url, init) => unwrappedFetch.call(globalThis, url, init)))
+    : Promise.resolve(null);
+  rest.catch(() => {});
   const packedURL = runtimeBase && packed ? new URL(packed, runtimeBase).href : null;
   const capture = captureRuntimeWasm(wasmURL, packedURL, packedURL && early?.take(packedURL));
+  // The runtime's script, from its gzip twin where there is one (and not
+  // served by the offline copy, which holds the plain file): Pyodide's
+  // private createPyodideModule option takes the module's export instead of
+  // importing pyodide.asm.mjs itself (FORMAT.md).
+  const packedScript = offlineCopy || !runtimeBase ? null : FAST.compressed?.["pyodide.asm.mjs"];
+  const createPyodideModule = packedScript
+    ? importPacked(new URL(packedScript, runtimeBase).href, new URL("pyodide.asm.mjs", runtimeBase).href, early)
+    : null;
+  createPyodideModule?.catch(() => {});
   // What needs no runtime is written as soon as the container is here:
   // Pyodide's header and the pages past the base.
   const paged = Promise.all([container, memory]).then(([snapshot, target]) => {
@@ -185,6 +234,7 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
     ...runtimeOptions({ indexURL, lockFileURL, stdout, stderr }),
     stdLibURL,
     _loadSnapshot: memory,
+    ...(createPyodideModule ? { createPyodideModule } : {}),
     // Runs once the WebAssembly is instantiated and before Python resumes
     // from the memory: the base pages are rebuilt from the runtime's fresh
     // memory, and the snapshot's package files go back where the build had
@@ -230,5 +280,29 @@ export async function startFromSnapshot({ indexURL, lockFileURL, snapshotInfoURL
   const problem = bound.hooks.known_case_error(JSON.stringify(info.known_case));
   if (problem) throw new Error(problem);
   bound.hooks.freeze();
-  return { pyodide, ...bound, mode: NAMES.modes.faststart };
+  // The rest of the standard library, written over the empty zip once it is
+  // here; calls that may import from it wait for this (worker.js).
+  // Should that file fail (a host error, other bytes than the sidecar
+  // names), the site's whole standard library (the normal start's) is put
+  // there instead, and complete resolves to a note saying so.
+  const install = (bytes) => {
+    pyodide.FS.writeFile(bound.hooks.stdlib_zip_path(), bytes);
+    bound.hooks.stdlib_arrived();
+    mark("standard library installed");
+  };
+  const complete = rest.then(
+    (bytes) => {
+      if (bytes !== null) install(bytes);
+      return null;
+    },
+    async (err) => {
+      const whole = new URL(NAMES.stdlib_file, runtimeBase).href;
+      const response = await unwrappedFetch.call(globalThis, whole, { credentials: "same-origin" });
+      if (!response.ok) throw new Error(`${NAMES.stdlib_file}: HTTP ${response.status}`);
+      install(new Uint8Array(await response.arrayBuffer()));
+      return `${err && err.message ? err.message : err}; the whole standard library was loaded instead`;
+    },
+  );
+  complete.catch(() => {});
+  return { pyodide, ...bound, mode: NAMES.modes.faststart, complete };
 }
