@@ -485,7 +485,8 @@ def _assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
         own_mm = _rate(own_uncoupled, an_row) * wet
         own_bounded = own_mm
         if band is not None:
-            own_bounded = min(max(own_mm, band[0] / 1000.0), band[1] / 1000.0)
+            own_bounded = cell_data.bound_by_band(
+                own_mm, (band[0] / 1000.0, None if band[1] is None else band[1] / 1000.0))
         local_mm = _rate(i_g_local + sol.i_local_A_m2, an_row) * wet
         galv_mm = _rate(i_g_local, an_row) * wet
         local_own_mm = local_mm - galv_mm
