@@ -61,3 +61,21 @@ def test_fitting_in_a_hull_in_seawater():
 def test_allowance_thicker_than_a_wall_is_refused():
     out = api.run("joint", {**CALC.example, "allowance": "10 mm"})
     assert not out["ok"] and out["error"]["field"] == "allowance"
+
+
+def test_recalled_wetness_and_film_mark_the_rate_from_memory(monkeypatch):
+    # The atmosphere's time of wetness and film are recalled (data/atmospheres.csv);
+    # even with every kinetics row and alloy graded published, a rate built on them
+    # is marked from memory. (The row-level grade now belongs to the ISO 9223 copper
+    # and aluminium bands, which were read, so it can no longer stand in for them.)
+    from noblegap.materials import cell_data
+    from noblegap.methods import galvanic as method
+    real_row, real_alloy = cell_data.kinetics_row, method.alloys.alloy
+    monkeypatch.setattr(cell_data, "kinetics_row",
+                        lambda a: dict(real_row(a), confidence="published"))
+    monkeypatch.setattr(method.alloys, "alloy",
+                        lambda a: dict(real_alloy(a), confidence="published"))
+    assert cell_data.environment("C5")["confidence"] == "published"
+    assert run()["from_memory"] is True
+    wet = cell_data.cite_env("C5", "galvanized_steel")["wetness"]
+    assert wet["confidence"] == "from-memory"

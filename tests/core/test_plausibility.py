@@ -7,7 +7,7 @@ No published field or laboratory measurement of a galvanic rate with its area
 ratio was found readable (see /work/shared/reference/sources-found.md, "not
 found: measured galvanic rates with area ratios"), so the bands are the
 project's recalled engineering expectations and the standard's own numbers
-(ISO 9223 zinc band, itself recalled: data/atmospheres.csv).
+(ISO 9223:2012 Table 2 zinc band, source iso9223_table2_de in data/atmospheres.csv).
 """
 
 import math
@@ -79,7 +79,7 @@ def test_same_holiday_in_fresh_water_at_least_ten_times_lower(d_mm, cathode):
 
 
 # --- 4. Zinc coupled with steel in a C3 atmosphere: within a few times the ISO 9223
-# zinc band (0.7–2.1 µm/yr, recalled). Zinc is the anode; the film is wet ~17 % of the
+# zinc band (0.7–2.1 µm/yr, ISO 9223:2012 Table 2). Zinc is the anode; the film is wet ~17 % of the
 # year and thin, so the galvanic part adds little to zinc's own atmospheric rate.
 # AGREES (likely ≈ 2.1–2.3 µm/yr, within 3× the band's top).
 @pytest.mark.parametrize("zinc_area, steel_area", [("0.1 m²", "1 m²"), ("1 m²", "1 m²")])

@@ -91,3 +91,18 @@ def test_thin_film_formula_is_labelled_from_memory_and_picked_for_thin_films():
     picked = [o for o in opts if o["applies"]]
     assert [o["id"] for o in picked] == [coatings.THIN_FILM_SPARK]
     assert "from memory" in picked[0]["source"]["text"]
+
+
+# nace_rp0274_scope: NACE RP0274-2004 §1.3 (scope as printed on the publisher's
+# store page): the thick-film voltages do not apply to thin-film (fusion-bonded)
+# coatings, "generally applied to a dry-film thickness less than 0.5 mm (20 mils)".
+# The split between the two spark formulas is that printed limit (0.5 mm or
+# 20 mil = 0.508 mm; both printed values must fall on the thin-film side).
+def test_thin_film_split_is_nace_rp0274_scope_0_5_mm_20_mil():
+    row = coatings.holiday_test_rows()[coatings.THIN_FILM_SPARK]
+    assert row["split_source_id"] == "nace_rp0274_scope"
+    assert row["split_confidence"] == "published"
+    assert 0.5 <= row["max_thickness_mm"] <= 0.508 + 1e-9
+    for text in ("0.5 mm", "20 mil"):
+        assert coatings.spark_formula(units.parse(text, "length")) == coatings.THIN_FILM_SPARK
+    assert coatings.spark_formula(units.parse("0.51 mm", "length")) == coatings.HIGH_VOLTAGE

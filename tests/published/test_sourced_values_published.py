@@ -9,6 +9,8 @@ Sources (ids in data/sources.csv):
 - refel_temp_table: reference-electrode potentials vs SHE at 15-35 °C.
 - aquaread_manual: 3 M KCl Ag/AgCl reference potential at 5-40 °C.
 - llnl_thermo: Debye-Hückel A of water at 0.01, 25, 60, 100 °C (llnl.dat, -dh_a).
+- iso9223_table2_de: ISO 9223:2012 Table 2 (DIN EN edition, page 13) first-year
+  rates of zinc, copper and aluminium by corrosivity category.
 Values marked from memory are never checked here as values.
 """
 
@@ -181,17 +183,44 @@ def test_iso_first_year_steel_band(cat, lo, hi, g_lo, g_hi):
     assert row["steel_high_um_per_yr"] == pytest.approx(g_hi / 7.874, rel=0.05)
 
 
-@pytest.mark.parametrize("cat, lo, hi", [
-    # iso14713_zinc_web: average zinc corrosion µm/year C1 <0.1, C2 0.1-0.7, C3 0.7-2,
-    # C4 2-4, C5 4-8
-    ("C1", "0", "0.1"), ("C2", "0.1", "0.7"), ("C3", "0.7", "2"), ("C4", "2", "4"),
-    ("C5", "4", "8"),
-])
-def test_iso_zinc_band(cat, lo, hi):
+# iso9223_table2_de: DIN EN ISO 9223:2012-05 Tabelle 2 (µm/a rows), zinc and copper
+# lower and upper limits by category, and aluminium in g/(m2 a) ("vernachlässigbar"
+# in C1, stored as 0; "> 10" in CX, no upper limit, stored blank).
+ISO9223_TABLE2 = [
+    # cat, zinc lo, hi, copper lo, hi, aluminium lo, hi
+    ("C1", "0", "0.1", "0", "0.1", "0", "0"),
+    ("C2", "0.1", "0.7", "0.1", "0.6", "0", "0.6"),
+    ("C3", "0.7", "2.1", "0.6", "1.3", "0.6", "2"),
+    ("C4", "2.1", "4.2", "1.3", "2.8", "2", "5"),
+    ("C5", "4.2", "8.4", "2.8", "5.6", "5", "10"),
+    ("CX", "8.4", "25", "5.6", "10", "10", None),
+]
+
+
+@pytest.mark.parametrize("cat, zlo, zhi, clo, chi, alo, ahi", ISO9223_TABLE2)
+def test_iso9223_table2_zinc_copper_aluminium(cat, zlo, zhi, clo, chi, alo, ahi):
     row = ATMOS[cat]
-    assert row["zinc_source_id"] == "iso14713_zinc_web"
-    assert row["zinc_low_um_per_yr"] == pytest.approx(float(lo), abs=_half(lo))
-    assert row["zinc_high_um_per_yr"] == pytest.approx(float(hi), abs=_half(hi))
+    assert row["zinc_source_id"] == "iso9223_table2_de"
+    assert row["source_id"] == "iso9223_table2_de"   # copper and aluminium
+    assert row["zinc_low_um_per_yr"] == pytest.approx(float(zlo), abs=_half(zlo))
+    assert row["zinc_high_um_per_yr"] == pytest.approx(float(zhi), abs=_half(zhi))
+    assert row["copper_low_um_per_yr"] == pytest.approx(float(clo), abs=_half(clo))
+    assert row["copper_high_um_per_yr"] == pytest.approx(float(chi), abs=_half(chi))
+    assert row["aluminium_low_g_m2_per_yr"] == pytest.approx(float(alo), abs=_half(alo))
+    if ahi is None:
+        assert row["aluminium_high_g_m2_per_yr"] is None
+    else:
+        assert row["aluminium_high_g_m2_per_yr"] == pytest.approx(float(ahi), abs=_half(ahi))
+
+
+def test_aluminium_band_open_above_in_cx():
+    # iso9223_table2_de: aluminium in CX is "> 10 g/(m2 a)"; the own rate is bounded
+    # below only (10 g/(m2 a) over the CRC density 2.6989 g/cm3 = 3.705 µm/a).
+    from noblegap.materials import cell_data
+    lo, hi = cell_data.iso_band_um_per_yr("CX", "A95083")
+    assert lo == pytest.approx(10 / 2.6989, rel=1e-9) and hi is None
+    assert cell_data.bound_by_band(50.0, (lo, hi)) == 50.0
+    assert cell_data.iso_band_um_per_yr("C1", "A95083") == (0.0, 0.0)
 
 
 @pytest.mark.parametrize("env", ["seawater_flowing", "seawater_quiescent"])

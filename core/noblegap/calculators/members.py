@@ -337,9 +337,18 @@ def wet_sentence(a):
          f"{units.fmt(lk['kappa_S_m'], 'S/m', 2)}.")
     if band is not None:
         s += (f" The anode's own uncoupled rate is held within the first-year band of "
-              f"ISO 9223 for its family in {a['env']['id']}: "
-              f"{units.fmt(band[0], '', 2)}–{units.fmt(band[1], 'µm/yr', 2)}.")
+              f"ISO 9223 for its family in {a['env']['id']}: {band_text(band)}.")
     return s
+
+
+def band_text(band):
+    """The ISO 9223 band (low, high) [µm/yr] in words: a range, open above, or negligible."""
+    low, high = band
+    if high is None:
+        return f"above {units.fmt(low, 'µm/yr', 2)} (the standard sets no upper limit)"
+    if high == 0:
+        return "negligible (taken as 0 µm/yr)"
+    return f"{units.fmt(low, '', 2)}–{units.fmt(high, 'µm/yr', 2)}"
 
 
 def common_rows(rep, a, conductivity_entered):
@@ -387,10 +396,8 @@ def common_rows(rep, a, conductivity_entered):
                 "computed: i_L = 4·F·D·c/h (Fick's first law; D and c of oxygen recalled, "
                 "from memory)", key="i_L")
         if a["iso_band_um_per_yr"] is not None:
-            b = a["iso_band_um_per_yr"]
             rep.row("ISO 9223 first-year band (anode's family)",
-                    f"{units.fmt(b[0], '', 2)}–{units.fmt(b[1], 'µm/yr', 2)}",
-                    cites["iso_rates"], key="iso_band")
+                    band_text(a["iso_band_um_per_yr"]), cites["iso_rates"], key="iso_band")
     k_an = cell_data.kinetics_row(a["anode"])
     k_ca = cell_data.kinetics_row(a["cathode"])
     rep.row("Anode kinetics", f"{k_an['mode']}, own current "

@@ -147,7 +147,12 @@ def _with_shared(r):
 
 
 def iso_band_um_per_yr(env_id, alloy_id):
-    """ISO 9223 first-year rate band (low, high) [µm/yr] of the alloy's family, or None."""
+    """ISO 9223 first-year rate band (low, high) [µm/yr] of the alloy's family, or None.
+
+    ``high`` is None where the standard gives no upper limit (aluminium in CX:
+    "> 10 g/(m²·a)"); the band is then open above. A band of (0, 0) is the
+    standard's "negligible" (aluminium in C1).
+    """
     env = environment(env_id)
     if env["kind"] != ATMOSPHERIC:
         return None
@@ -156,8 +161,19 @@ def iso_band_um_per_yr(env_id, alloy_id):
         return None
     if key == "aluminium":
         lo, hi = env["aluminium_low_g_m2_per_yr"], env["aluminium_high_g_m2_per_yr"]
-        return lo / AL_DENSITY_G_CM3, hi / AL_DENSITY_G_CM3
+        return lo / AL_DENSITY_G_CM3, (None if hi is None else hi / AL_DENSITY_G_CM3)
     return env[f"{key}_low_um_per_yr"], env[f"{key}_high_um_per_yr"]
+
+
+def bound_by_band(rate, band):
+    """``rate`` held within ``band`` (low, high); a high of None leaves it open above.
+
+    >>> bound_by_band(5.0, (1.0, 2.0)), bound_by_band(5.0, (1.0, None))
+    (2.0, 5.0)
+    """
+    low, high = band
+    rate = max(rate, low)
+    return rate if high is None else min(rate, high)
 
 
 def cite_env(env_id, alloy_id=None):

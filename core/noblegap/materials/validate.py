@@ -83,7 +83,7 @@ VALUE_SOURCES = {
                              "dEdT_T_min_degC": "dEdT_", "dEdT_T_max_degC": "dEdT_",
                              "T_max_degC": "T_max_"},
     "coatings": {"a_fraction": "", "b_per_yr": ""},
-    "holiday_tests": {"max_thickness_mm": "", "k_V": ""},
+    "holiday_tests": {"max_thickness_mm": "split_", "k_V": ""},
     "debye_huckel": {"T_degC": "", "A_sqrt_kg_per_mol": ""},
     "electrolytes": {"salinity_low_psu": "salinity_", "salinity_psu": "salinity_",
                      "salinity_high_psu": "salinity_",

@@ -457,7 +457,11 @@ def _assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
     band = cell_data.iso_band_um_per_yr(env_id, an_id)
     k_an, k_ca = cell_data.kinetics_row(an_id), cell_data.kinetics_row(ca_id)
     env = cell_data.environment(env_id)
+    # the environment's own values behind the rate: wetness, film and the anode's
+    # first-year band in an atmosphere; conductivity and oxygen limit in immersion
+    env_confs = [c["confidence"] for c in cell_data.cite_env(env_id, an_id).values()]
     from_memory = any(r.get("confidence") == "from-memory" for r in (k_an, k_ca, env)) or \
+        "from-memory" in env_confs or \
         any(alloys.alloy(a)["confidence"] == "from-memory" for a in (an_id, ca_id))
     ra, rc = rule["range_anode"], rule["range_cathode"]
     wanted = cases
@@ -485,7 +489,8 @@ def _assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
         own_mm = _rate(own_uncoupled, an_row) * wet
         own_bounded = own_mm
         if band is not None:
-            own_bounded = min(max(own_mm, band[0] / 1000.0), band[1] / 1000.0)
+            own_bounded = cell_data.bound_by_band(
+                own_mm, (band[0] / 1000.0, None if band[1] is None else band[1] / 1000.0))
         local_mm = _rate(i_g_local + sol.i_local_A_m2, an_row) * wet
         galv_mm = _rate(i_g_local, an_row) * wet
         local_own_mm = local_mm - galv_mm
