@@ -247,9 +247,14 @@ function armStartWatchdog() {
 // queues calls until it is up and answers them in order, so the first live
 // result does not wait for a round trip after "ready". Used only if the
 // inputs are still the same when the engine is ready.
+// A shared link's inputs (not the worked example, which is already on
+// screen in full) go as two calls, the headline first, as a typed edit's do.
 function sendEarly() {
   const inputs = readInputs();
-  early = { key: keyOf(inputs), reply: call(NAMES.calls.run, { calc: schema.name, inputs }) };
+  const headline = schema.headline_path === true && resultBox.dataset.state !== "example"
+    ? call(NAMES.calls.run, { calc: schema.name, inputs, headline_only: true })
+    : null;
+  early = { key: keyOf(inputs), headline, reply: call(NAMES.calls.run, { calc: schema.name, inputs }) };
 }
 
 async function compute() {
@@ -269,24 +274,24 @@ async function compute() {
   }
   busy = true;
   pending = false;
-  // Only a typed edit shows the headline first; a link, a restored example,
-  // Back or Undo wait for the whole result.
-  const headlineFirst = headlineNext && schema.headline_path === true;
+  // A typed edit and a shared link's first result show the headline first;
+  // the worked example restored, Back or Undo wait for the whole result.
+  const sentEarly = early && early.key === key ? early : null;
+  early = null;
+  const headlineFirst = sentEarly ? sentEarly.headline !== null : headlineNext && schema.headline_path === true;
   headlineNext = false;
   // A result of other inputs stays only for the blink of a fast answer.
   if (resultBox.dataset.state === "live" || resultBox.dataset.state === "example") {
     resultBox.classList.add("is-stale");
   }
   const pendTimer = setTimeout(() => showPending(inputs), PENDING_AFTER_MS);
-  const sent = early && early.key === key ? early.reply : null;
-  early = null;
   const superseded = () => pending || keyOf(readInputs()) !== key;
-  let whole = sent;
-  if (headlineFirst && !sent) {
+  let whole = sentEarly ? sentEarly.reply : null;
+  if (headlineFirst) {
     // Both calls go at once: the worker starts the whole result as soon as
     // the headline is out, while this thread draws the headline.
-    const firstReply = call(NAMES.calls.run, { calc: schema.name, inputs, headline_only: true });
-    whole = call(NAMES.calls.run, { calc: schema.name, inputs });
+    const firstReply = sentEarly ? sentEarly.headline : call(NAMES.calls.run, { calc: schema.name, inputs, headline_only: true });
+    whole = whole ?? call(NAMES.calls.run, { calc: schema.name, inputs });
     const first = await firstReply;
     if (superseded()) {
       clearTimeout(pendTimer);
