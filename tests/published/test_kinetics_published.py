@@ -9,12 +9,18 @@ Sources (ids in data/sources.csv):
 - rfmaterials_steel_seawater: carbon steel about 0.1 mm/y in quiescent seawater, about
   0.8 mm/y at 3 m/s.
 - melchers2021: longer-term rate of steel in seawater at about 20 °C, 0.06 mm/y.
+- gaa_zinc_waters: zinc in sea water 15-25 µm per annum.
+- marine_ecology_temps_web: seawater of salinity 35 freezes at about -1.9 °C; much
+  low-latitude surface water is at 26-30 °C. physics_factbook_ocean_temp: the average
+  ocean surface temperature is about 17 °C.
+- mil_hdbk_1004_10: aluminium is protected by a 100 mV negative polarization shift and
+  should not be driven more negative than -1.20 V against copper/copper sulfate.
 Values marked from memory are never checked here as values.
 """
 
 import pytest
 
-from noblegap.materials import anode_data, data
+from noblegap.materials import anode_data, data, references
 
 
 @pytest.mark.parametrize("shape, printed", [
@@ -53,3 +59,39 @@ def test_steel_own_rate_from_the_printed_seawater_rates(column, printed_mm_yr):
     steel = data.index("alloys")["carbon_steel"]
     cr = 3.27e-3 * (row[column] / 0.01) * steel["equivalent_weight_g_mol"] / steel["density_g_cm3"]
     assert cr == pytest.approx(float(printed_mm_yr), rel=0.02)
+
+
+@pytest.mark.parametrize("column, printed_um_yr", [
+    # gaa_zinc_waters: sea water 15 - 25 µm per annum; likely the middle of the band.
+    ("i_corr_low_A_m2", "15"), ("i_corr_A_m2", "20"), ("i_corr_high_A_m2", "25"),
+])
+def test_zinc_own_rate_from_the_printed_sea_water_band(column, printed_um_yr):
+    row = next(r for r in data.table("cell_kinetics") if r["id"] == "zinc")
+    assert row["source_id"] == "gaa_zinc_waters"
+    zinc = data.index("alloys")["zinc"]
+    cr_um = 1000 * 3.27e-3 * (row[column] / 0.01) * zinc["equivalent_weight_g_mol"] / zinc["density_g_cm3"]
+    assert cr_um == pytest.approx(float(printed_um_yr), rel=0.03)
+
+
+@pytest.mark.parametrize("column, printed", [
+    ("T_low_degC", "-1.9"), ("T_degC", "17"), ("T_high_degC", "30"),
+])
+def test_quiescent_seawater_temperatures(column, printed):
+    row = data.index("electrolytes")["seawater_quiescent"]
+    assert row["T_source_id"] == "marine_ecology_temps_web"
+    decimals = len(printed.split(".")[1]) if "." in printed else 0
+    assert row[column] == pytest.approx(float(printed), abs=0.5 * 10 ** -decimals)
+
+
+def test_aluminium_protection_criterion_mil_hdbk_1004_10():
+    # §3.3.1.2: 100 mV or greater negative polarization shift; precautionary note at
+    # -1.20 V against saturated copper/copper sulfate.
+    crit = anode_data.criterion("aluminium")
+    row = crit["row"]
+    assert row["source_id"] == "mil_hdbk_1004_10"
+    assert crit["E_protect_V_SCE"] is None
+    assert crit["shift_V"] == pytest.approx(0.100, abs=0.0005)
+    assert row["reference"] == "cse"
+    assert row["E_limit_V"] == pytest.approx(-1.20, abs=0.005)
+    assert crit["E_limit_V_SCE"] == pytest.approx(
+        references.to_scale(-1.20, "cse", "sce"), abs=1e-9)
