@@ -13,6 +13,8 @@ Sources (ids in data/sources.csv):
 - marine_ecology_temps_web: seawater of salinity 35 freezes at about -1.9 °C; much
   low-latitude surface water is at 26-30 °C. physics_factbook_ocean_temp: the average
   ocean surface temperature is about 17 °C.
+- defstan_01_2_seawater_table: one-year general corrosion rates in seawater (Table 7):
+  gunmetal G1 0.025, cast nickel aluminium bronze AB2 0.06, high-tensile brass 0.18 mm/year.
 - mil_hdbk_1004_10: aluminium is protected by a 100 mV negative polarization shift and
   should not be driven more negative than -1.20 V against copper/copper sulfate.
 Values marked from memory are never checked here as values.
@@ -95,3 +97,16 @@ def test_aluminium_protection_criterion_mil_hdbk_1004_10():
     assert row["E_limit_V"] == pytest.approx(-1.20, abs=0.005)
     assert crit["E_limit_V_SCE"] == pytest.approx(
         references.to_scale(-1.20, "cse", "sce"), abs=1e-9)
+
+
+@pytest.mark.parametrize("column, printed_mm_yr", [
+    # Table 7 general corrosion, mm/year: gunmetal G1 0.025; nickel aluminium bronze AB2
+    # 0.06; high-tensile brass CZ115 / HTB1 0.18.
+    ("i_corr_low_A_m2", "0.025"), ("i_corr_A_m2", "0.06"), ("i_corr_high_A_m2", "0.18"),
+])
+def test_copper_alloy_own_rate_from_the_one_year_raft_table(column, printed_mm_yr):
+    row = next(r for r in data.table("cell_kinetics") if r["id"] == "copper_alloy")
+    assert row["source_id"] == "defstan_01_2_seawater_table"
+    nab = data.index("alloys")["C95800"]
+    cr = 3.27e-3 * (row[column] / 0.01) * nab["equivalent_weight_g_mol"] / nab["density_g_cm3"]
+    assert cr == pytest.approx(float(printed_mm_yr), rel=0.03)
