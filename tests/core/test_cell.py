@@ -216,3 +216,31 @@ def test_spread_length_does_not_depend_on_the_number_of_damped_steps(
             within = 12 * lay.faces * 2 * math.pi * lam * (lay.site_radius_m + lam)
             sur = c["A_cathode_eff_m2"] if lay.site_role == "anode" else c["A_anode_eff_m2"]
             assert sur == pytest.approx(min(within, plate_m2), rel=1e-9)
+
+
+def test_flat_passive_metal_needs_no_anodic_slope():
+    # A passive metal without a breakdown potential dissolves at its passive current at
+    # every potential, so its row may leave b_a blank; any other metal must give one.
+    flat = el(**dict(STAINLESS, E_b_V=None, b_a_V=None))
+    for dE in (-0.3, 0.0, 0.5, 1.5):
+        assert flat.dissolution(flat.E_corr_V + dE) == STAINLESS["i_corr_A_m2"]
+    assert flat.net(flat.E_corr_V) == pytest.approx(0.0, abs=1e-12)
+    for kw in (STEEL, STAINLESS):
+        with pytest.raises(InputError, match="anodic Tafel slope"):
+            el(**dict(kw, b_a_V=None))
+
+
+def test_kinetics_citation_is_as_weak_as_its_weakest_value():
+    # The headline's weakest-source line reads the kinetics citation: a row whose own
+    # current is sourced but whose slopes are recalled must still read "from memory".
+    from noblegap.materials import cell_data, data
+    for alloy_id in ("carbon_steel", "C95800", "S31600", "A95083", "zinc", "titanium"):
+        row = cell_data.kinetics_row(alloy_id)
+        own = data.index("cell_kinetics")[row["id"]]
+        grades = [own["confidence"]]
+        if any(own[c] is None for c in cell_data.SHARED_COLUMNS):
+            grades.append(cell_data.shared_kinetics()["confidence"])
+        if row["b_a_mV_per_decade"] is not None:
+            grades.append(own["ba_confidence"])
+        weakest = max(grades, key=data.CONFIDENCE.index)
+        assert cell_data.kinetics_cite(row)["confidence"] == weakest, alloy_id

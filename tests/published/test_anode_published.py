@@ -11,9 +11,9 @@ Sources (ids in data/sources.csv):
   ch. 13 pp. 554-555 (aluminium theoretical 2960 Ah/kg at about 95 % efficiency,
   useful output approximately 2800 Ah/kg; magnesium theoretical 2200 Ah/kg at about
   50 %, useful 1100 Ah/kg).
-Values marked from memory (DNV-RP-B401 utilisation factors, resistance forms, the
-aluminium-zinc-indium potential, protection potentials other than steel's) are never
-checked here as values.
+Values marked from memory (resistance forms, the aluminium-zinc-indium potential, the
+copper and stainless protection potentials) are never checked here as values; the
+utilisation factors and the aluminium criterion are checked in test_kinetics_published.py.
 """
 
 import pytest

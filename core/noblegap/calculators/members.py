@@ -401,13 +401,16 @@ def common_rows(rep, a, conductivity_entered):
     k_an = cell_data.kinetics_row(a["anode"])
     k_ca = cell_data.kinetics_row(a["cathode"])
     rep.row("Anode kinetics", f"{k_an['mode']}, own current "
-            f"{units.fmt(k_an['i_corr_A_m2'], 'A/m²', 2)}, b_a {k_an['b_a_mV_per_decade']:g} "
-            "mV/decade" + (f", breakdown {units.fmt(k_an['E_b_V_SCE'], 'V')} vs SCE"
-                           if k_an["E_b_V_SCE"] is not None else ""),
-            data.cite(k_an), key="anode_kinetics")
+            f"{units.fmt(k_an['i_corr_A_m2'], 'A/m²', 2)}"
+            + (f", b_a {k_an['b_a_mV_per_decade']:g} mV/decade"
+               if k_an["b_a_mV_per_decade"] is not None else ", no breakdown in range")
+            + (f", breakdown {units.fmt(k_an['E_b_V_SCE'], 'V')} vs SCE"
+               if k_an["E_b_V_SCE"] is not None else ""),
+            cell_data.kinetics_cite(k_an), key="anode_kinetics")
     rep.row("Cathode kinetics", f"{k_ca['mode']}, own current "
             f"{units.fmt(k_ca['i_corr_A_m2'], 'A/m²', 2)}, b_c "
-            f"{k_ca['b_c_mV_per_decade']:g} mV/decade", data.cite(k_ca), key="cathode_kinetics")
+            f"{k_ca['b_c_mV_per_decade']:g} mV/decade", cell_data.kinetics_cite(k_ca),
+            key="cathode_kinetics")
     rep.row("Electrolyte resistance", units.fmt(lk["R_ohm"], "Ω", 3),
             "computed: disks in an insulating plane R = ρ/(4r) (Newman 1966)"
             if lk["film_m"] is None else

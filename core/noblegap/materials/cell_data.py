@@ -139,6 +139,29 @@ def shared_kinetics():
                            f"{SHARED_MATCH!r}")
 
 
+def kinetics_cite(row):
+    """One citation for every value of a kinetics row the model uses.
+
+    ``row`` is a :func:`kinetics_row` result. The own current density (and
+    breakdown potential) cite the row's own source; the anodic slope its
+    ``ba_`` source where the model uses it (an active metal, or a passive one
+    with a breakdown potential); the oxygen-reduction slope and hydrogen
+    exchange current the ``shared`` row where the metal's row leaves them blank.
+    The text joins the three; ``confidence`` is the weakest of them, so that a
+    headline never shows a firmer grade than its least certain input.
+    """
+    own = data.index("cell_kinetics")[row["id"]]
+    parts = [("", data.cite(own))]
+    if row["b_a_mV_per_decade"] is not None:
+        parts.append(("anodic slope: ", data.cite(own, "ba_")))
+    if any(own[c] is None for c in SHARED_COLUMNS):
+        parts.append(("oxygen-reduction slope and hydrogen exchange current of every "
+                      "metal: ", data.cite(shared_kinetics())))
+    weakest = max((p["confidence"] for _, p in parts), key=data.CONFIDENCE.index)
+    text = "; ".join(f"{label}{p['text']}" for label, p in parts)
+    return {"source_id": parts[0][1]["source_id"], "text": text, "confidence": weakest}
+
+
 def _with_shared(r):
     if all(r[c] is not None for c in SHARED_COLUMNS):
         return r

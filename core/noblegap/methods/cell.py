@@ -164,8 +164,10 @@ class Electrode:
     i_corr_A_m2 : float
         Own dissolution current density at E_corr [A/m²] (the passive current
         for a passive metal), 0 < i_corr < i_L.
-    b_a_V : float
-        Anodic Tafel slope of active dissolution [V/decade].
+    b_a_V : float or None
+        Anodic Tafel slope of active dissolution [V/decade]. None only for a
+        passive metal without a breakdown potential, whose dissolution stays at
+        the passive current and so never uses it.
     b_c_V : float
         Oxygen-reduction activation Tafel slope [V/decade].
     i_L_A_m2 : float
@@ -181,7 +183,7 @@ class Electrode:
 
     E_corr_V: float
     i_corr_A_m2: float
-    b_a_V: float
+    b_a_V: float | None
     b_c_V: float
     i_L_A_m2: float
     passive: bool = False
@@ -191,12 +193,21 @@ class Electrode:
     b_H_V: float = 0.12
 
     def __post_init__(self):
+        flat = self.passive and self.E_b_V is None
+        if self.b_a_V is None and not flat:
+            raise InputError("b_a_V is missing: an active metal, or a passive one with a "
+                             "breakdown potential, needs its anodic Tafel slope.",
+                             field="b_a_V", value=None, allowed="a positive number")
         for key in ("E_corr_V", "i_corr_A_m2", "b_a_V", "b_c_V", "i_L_A_m2"):
             v = getattr(self, key)
+            if key == "b_a_V" and v is None:
+                continue
             if not isinstance(v, (int, float)) or not math.isfinite(v):
                 raise InputError(f"{key} is not a finite number.", field=key, value=v,
                                  allowed="a finite number")
         for key in ("i_corr_A_m2", "b_a_V", "b_c_V", "i_L_A_m2"):
+            if key == "b_a_V" and self.b_a_V is None:
+                continue
             if getattr(self, key) <= 0:
                 raise InputError(f"{key} must be positive.", field=key,
                                  value=getattr(self, key), allowed="> 0")
@@ -208,7 +219,8 @@ class Electrode:
 
         # constants of the three laws, computed once (the solver calls them often)
         set_ = object.__setattr__
-        set_(self, "_ka", _LOG10 / self.b_a_V)
+        # a flat passive metal never uses the anodic slope (dissolution = i_corr)
+        set_(self, "_ka", 0.0 if self.b_a_V is None else _LOG10 / self.b_a_V)
         set_(self, "_kc", _LOG10 / self.b_c_V)
         set_(self, "_ix", self.i_corr_A_m2 / (1.0 - self.i_corr_A_m2 / self.i_L_A_m2))
         start = None

@@ -175,7 +175,8 @@ def electrode(alloy_id, E_corr_V, case, i_L_A_m2):
     row = cell_data.kinetics_row(alloy_id)
     i_corr = _pick(cell_data.triple(row, "i_corr", "A_m2"), case)
     i_corr = min(i_corr, 0.5 * i_L_A_m2)
-    return cell.Electrode(E_corr_V, i_corr, row["b_a_mV_per_decade"] / 1000.0,
+    b_a = row["b_a_mV_per_decade"]
+    return cell.Electrode(E_corr_V, i_corr, None if b_a is None else b_a / 1000.0,
                           row["b_c_mV_per_decade"] / 1000.0, i_L_A_m2,
                           passive=row["mode"] == "passive", E_b_V=row["E_b_V_SCE"],
                           i0_H_A_m2=row["i0_H_A_m2"] or 0.0, E_H_V=E_H_V_SCE)
@@ -460,8 +461,8 @@ def _assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
     # the environment's own values behind the rate: wetness, film and the anode's
     # first-year band in an atmosphere; conductivity and oxygen limit in immersion
     env_confs = [c["confidence"] for c in cell_data.cite_env(env_id, an_id).values()]
-    from_memory = any(r.get("confidence") == "from-memory" for r in (k_an, k_ca, env)) or \
-        "from-memory" in env_confs or \
+    from_memory = env.get("confidence") == "from-memory" or "from-memory" in env_confs or \
+        any(cell_data.kinetics_cite(k)["confidence"] == "from-memory" for k in (k_an, k_ca)) or \
         any(alloys.alloy(a)["confidence"] == "from-memory" for a in (an_id, ca_id))
     ra, rc = rule["range_anode"], rule["range_cathode"]
     wanted = cases

@@ -1,0 +1,112 @@
+"""Cell-kinetics, electrolyte and anode-shape values against what their sources print.
+
+Sources (ids in data/sources.csv):
+- dnv_b401_tables_repo: DNV-RP-B401 (2010, amended 2011) Table 10-1 (initial and final
+  design current densities, A/m², bare metal in seawater, by depth and climatic region),
+  Table 10-2 (mean design current densities) and Table 10-8 (anode utilisation factors),
+  as transcribed in the public repository named there (Table 10-8 also as the 2017
+  edition's Table A-8).
+- rfmaterials_steel_seawater: carbon steel about 0.1 mm/y in quiescent seawater, about
+  0.8 mm/y at 3 m/s.
+- melchers2021: longer-term rate of steel in seawater at about 20 °C, 0.06 mm/y.
+- gaa_zinc_waters: zinc in sea water 15-25 µm per annum.
+- marine_ecology_temps_web: seawater of salinity 35 freezes at about -1.9 °C; much
+  low-latitude surface water is at 26-30 °C. physics_factbook_ocean_temp: the average
+  ocean surface temperature is about 17 °C.
+- defstan_01_2_seawater_table: one-year general corrosion rates in seawater (Table 7):
+  gunmetal G1 0.025, cast nickel aluminium bronze AB2 0.06, high-tensile brass 0.18 mm/year.
+- mil_hdbk_1004_10: aluminium is protected by a 100 mV negative polarization shift and
+  should not be driven more negative than -1.20 V against copper/copper sulfate.
+Values marked from memory are never checked here as values.
+"""
+
+import pytest
+
+from noblegap.materials import anode_data, data, references
+
+
+@pytest.mark.parametrize("shape, printed", [
+    # Table 10-8: long slender stand-off (L >= 4r) 0.90; short slender stand-off
+    # (L < 4r) 0.85; short flush-mounted, bracelet and other types 0.80.
+    ("standoff_long", "0.90"), ("standoff_short", "0.85"), ("flush", "0.80"),
+])
+def test_anode_utilisation_factor_dnv_table_10_8(shape, printed):
+    row = anode_data.shape(shape)
+    assert row["source_id"] == "dnv_b401_tables_repo"
+    assert row["confidence"] == "handbook-compiled"
+    assert row["utilisation_fraction"] == pytest.approx(float(printed), abs=0.005)
+
+
+@pytest.mark.parametrize("column, printed", [
+    # Depth 0-30 m: Table 10-2 mean, tropical (> 20 °C) 0.070; Table 10-2 mean,
+    # sub-tropical (12-20 °C) 0.080; Table 10-1 initial, arctic (< 7 °C) 0.250.
+    ("i_L_low_A_m2", "0.070"), ("i_L_A_m2", "0.080"), ("i_L_high_A_m2", "0.250"),
+])
+def test_quiescent_seawater_oxygen_limit_from_design_current_densities(column, printed):
+    row = data.index("electrolytes")["seawater_quiescent"]
+    assert row["iL_source_id"] == "dnv_b401_tables_repo"
+    assert row[column] == pytest.approx(float(printed), abs=0.0005)
+
+
+@pytest.mark.parametrize("column, printed_mm_yr", [
+    # melchers2021: 0.06 mm/y longer term; rfmaterials_steel_seawater: 0.1 mm/y
+    # quiescent, 0.8 mm/y at 3 m/s.
+    ("i_corr_low_A_m2", "0.06"), ("i_corr_A_m2", "0.1"), ("i_corr_high_A_m2", "0.8"),
+])
+def test_steel_own_rate_from_the_printed_seawater_rates(column, printed_mm_yr):
+    # ASTM G102: CR = K i EW / rho, K = 3.27e-3 mm g/(uA cm yr), with the carbon_steel
+    # row's EW and density. The table stores two significant figures.
+    row = next(r for r in data.table("cell_kinetics") if r["id"] == "steel")
+    assert row["source_id"] == "rfmaterials_steel_seawater"
+    steel = data.index("alloys")["carbon_steel"]
+    cr = 3.27e-3 * (row[column] / 0.01) * steel["equivalent_weight_g_mol"] / steel["density_g_cm3"]
+    assert cr == pytest.approx(float(printed_mm_yr), rel=0.02)
+
+
+@pytest.mark.parametrize("column, printed_um_yr", [
+    # gaa_zinc_waters: sea water 15 - 25 µm per annum; likely the middle of the band.
+    ("i_corr_low_A_m2", "15"), ("i_corr_A_m2", "20"), ("i_corr_high_A_m2", "25"),
+])
+def test_zinc_own_rate_from_the_printed_sea_water_band(column, printed_um_yr):
+    row = next(r for r in data.table("cell_kinetics") if r["id"] == "zinc")
+    assert row["source_id"] == "gaa_zinc_waters"
+    zinc = data.index("alloys")["zinc"]
+    cr_um = 1000 * 3.27e-3 * (row[column] / 0.01) * zinc["equivalent_weight_g_mol"] / zinc["density_g_cm3"]
+    assert cr_um == pytest.approx(float(printed_um_yr), rel=0.03)
+
+
+@pytest.mark.parametrize("column, printed", [
+    ("T_low_degC", "-1.9"), ("T_degC", "17"), ("T_high_degC", "30"),
+])
+def test_quiescent_seawater_temperatures(column, printed):
+    row = data.index("electrolytes")["seawater_quiescent"]
+    assert row["T_source_id"] == "marine_ecology_temps_web"
+    decimals = len(printed.split(".")[1]) if "." in printed else 0
+    assert row[column] == pytest.approx(float(printed), abs=0.5 * 10 ** -decimals)
+
+
+def test_aluminium_protection_criterion_mil_hdbk_1004_10():
+    # §3.3.1.2: 100 mV or greater negative polarization shift; precautionary note at
+    # -1.20 V against saturated copper/copper sulfate.
+    crit = anode_data.criterion("aluminium")
+    row = crit["row"]
+    assert row["source_id"] == "mil_hdbk_1004_10"
+    assert crit["E_protect_V_SCE"] is None
+    assert crit["shift_V"] == pytest.approx(0.100, abs=0.0005)
+    assert row["reference"] == "cse"
+    assert row["E_limit_V"] == pytest.approx(-1.20, abs=0.005)
+    assert crit["E_limit_V_SCE"] == pytest.approx(
+        references.to_scale(-1.20, "cse", "sce"), abs=1e-9)
+
+
+@pytest.mark.parametrize("column, printed_mm_yr", [
+    # Table 7 general corrosion, mm/year: gunmetal G1 0.025; nickel aluminium bronze AB2
+    # 0.06; high-tensile brass CZ115 / HTB1 0.18.
+    ("i_corr_low_A_m2", "0.025"), ("i_corr_A_m2", "0.06"), ("i_corr_high_A_m2", "0.18"),
+])
+def test_copper_alloy_own_rate_from_the_one_year_raft_table(column, printed_mm_yr):
+    row = next(r for r in data.table("cell_kinetics") if r["id"] == "copper_alloy")
+    assert row["source_id"] == "defstan_01_2_seawater_table"
+    nab = data.index("alloys")["C95800"]
+    cr = 3.27e-3 * (row[column] / 0.01) * nab["equivalent_weight_g_mol"] / nab["density_g_cm3"]
+    assert cr == pytest.approx(float(printed_mm_yr), rel=0.03)
