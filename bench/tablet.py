@@ -113,7 +113,7 @@ def first_live(context, url, timeout_s, tablet, counter=None):
     if PHASES_TO_STDERR:
         timings = marks.get("workerTimings") or {}
         print(f"    {url.split('?')[0].rsplit('/', 1)[-1]}: worker created {marks.get('workerCreated', 0):.0f} ms, "
-              f"first live {marks.get('firstLive') or 0:.0f} ms; worker: "
+              f"engine ready {marks.get('ready') or 0:.0f} ms, first live {marks.get('firstLive') or 0:.0f} ms; worker: "
               + ", ".join(f"{k} {v:.0f}" for k, v in timings.items()), file=sys.stderr, flush=True)
     return page, marks.get("firstLive"), state, mode
 
