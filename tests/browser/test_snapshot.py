@@ -282,3 +282,24 @@ def test_second_visit_uses_the_offline_copys_unpacked_files(page, context, serve
     assert FALLBACK not in " ".join(page.evaluate("() => window.__statusLog")), page.inner_text("#engine-status")
     assert page.inner_text("#result .headline") == _headline(api.run("couple", {"metal_a": "Mg", "metal_b": "Au"}))
     context.set_offline(False)
+
+
+def test_runtime_script_from_its_twin_and_plain_when_blob_scripts_are_refused(page, context, server):
+    # The fast start imports the runtime's script from its unpacked gzip twin
+    # (a blob: script the worker's own policy allows). A host whose policy
+    # refuses blob: scripts in the worker still gets the fast start: the
+    # plain script is imported instead.
+    from site_build.pages import CSP, WORKER_CSP
+    assert "blob:" in WORKER_CSP and "blob:" not in CSP.split("script-src", 1)[1].split(";", 1)[0]
+
+    def strict(route):
+        response = route.fetch()
+        route.fulfill(response=response, headers={**response.headers, "content-security-policy": CSP})
+    context.route("**/static/engine/worker.js", strict)
+    seen = []
+    page.on("request", lambda request: seen.append(request.url.rsplit("/", 1)[-1]))
+    page.goto(f"{server}/couple.html?metal_a=Mg&metal_b=Au")
+    wait_live(page, 0)
+    assert page.get_attribute("body", "data-engine-mode") == "snapshot"
+    assert "pyodide.asm.mjs.gzip" in seen and "pyodide.asm.mjs" in seen, seen
+    assert page.inner_text("#result") and "failed" not in page.inner_text("#engine-status")
