@@ -151,15 +151,27 @@ def kinetics_cite(row):
     headline never shows a firmer grade than its least certain input.
     """
     own = data.index("cell_kinetics")[row["id"]]
-    parts = [("", data.cite(own))]
+    parts = [("", _kinetics_part(own))]
     if row["b_a_mV_per_decade"] is not None:
-        parts.append(("anodic slope: ", data.cite(own, "ba_")))
+        parts.append(("anodic slope: ", _kinetics_part(own, "ba_")))
     if any(own[c] is None for c in SHARED_COLUMNS):
         parts.append(("oxygen-reduction slope and hydrogen exchange current of every "
-                      "metal: ", data.cite(shared_kinetics())))
+                      "metal: ", _kinetics_part(shared_kinetics())))
     weakest = max((p["confidence"] for _, p in parts), key=data.CONFIDENCE.index)
     text = "; ".join(f"{label}{p['text']}" for label, p in parts)
     return {"source_id": parts[0][1]["source_id"], "text": text, "confidence": weakest}
+
+
+def _kinetics_part(row, prefix=""):
+    """One part of :func:`kinetics_cite`: the full citation of a sourced value; for a
+    recalled one only what was recalled, marked "from memory" (the generic
+    from-memory source's wording would be repeated once per part)."""
+    cited = data.cite(row, prefix)
+    if cited["confidence"] != "from-memory":
+        return cited
+    locator = (row.get(f"{prefix}locator") or "").strip()
+    vague = not locator or locator.lower().startswith("recalled")
+    return dict(cited, text="from memory" if vague else f"{locator} (from memory)")
 
 
 def _with_shared(r):
