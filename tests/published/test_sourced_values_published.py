@@ -144,6 +144,8 @@ def test_copper_alloy_density_from_the_cda_sheet(alloy, source, printed_lb_in3):
     ("S41600", "alloysintl_sheets", "7.80"), ("C65500", "atlas_c65500", "8.53"),
     # azom_c44300: density 8.53 g/cm3
     ("C44300", "azom_c44300", "8.53"),
+    # n05500_producer_sheet: Table 2, density 8.44 g/cm3 (0.305 lb/in3)
+    ("N05500", "n05500_producer_sheet", "8.44"),
 ])
 def test_alloy_density_from_its_data_sheet(alloy, source, printed):
     row = ALLOYS[alloy]
