@@ -13,7 +13,8 @@ from noblegap import units
 # DNV-RP-B401, §6.4 (mean and final coating breakdown factors): with
 # a = 0.05, b = 0.025 and tf = 20 years the standard's formulas give
 # fcm = 0.30 and fcf = 0.55 (printed to two decimals → tolerance 0.005).
-# The constants are given directly: their category lookup is from memory.
+# The constants are given directly (their category lookup is checked below
+# against Table 10-4).
 def test_dnv_rp_b401_mean_breakdown_a005_b0025_20yr():
     assert coatings.mean_breakdown(0.05, 0.025, 20) == pytest.approx(0.30, abs=0.005)
 
@@ -106,3 +107,22 @@ def test_thin_film_split_is_nace_rp0274_scope_0_5_mm_20_mil():
     for text in ("0.5 mm", "20 mil"):
         assert coatings.spark_formula(units.parse(text, "length")) == coatings.THIN_FILM_SPARK
     assert coatings.spark_formula(units.parse("0.51 mm", "length")) == coatings.HIGH_VOLTAGE
+
+
+# DNV-RP-B401, Table 10-4 (2017: Table A-4; 2021: Table 8-4) as transcribed in
+# github.com/vamseeachanta/digitalmodel (source id dnv_b401_coating_ab_repo):
+# constants a and b for coating categories I-III by depth, printed to two or
+# three decimals (tolerance half the last printed digit).
+@pytest.mark.parametrize("row_id, a, b, tol", [
+    ("I-30+", 0.10, 0.05, 0.005),
+    ("II-0-30", 0.05, 0.025, 0.0005),
+    ("II-30+", 0.05, 0.015, 0.0005),
+    ("III-0-30", 0.02, 0.012, 0.0005),
+    ("III-30+", 0.02, 0.008, 0.0005),
+])
+def test_dnv_rp_b401_table_10_4_constants_by_category_and_depth(row_id, a, b, tol):
+    row = coatings.category(row_id)
+    assert row["a_fraction"] == pytest.approx(a, abs=0.005)
+    assert row["b_per_yr"] == pytest.approx(b, abs=tol)
+    assert row["source_id"] == "dnv_b401_coating_ab_repo"
+    assert row["confidence"] == "handbook-compiled"

@@ -144,6 +144,8 @@ def test_copper_alloy_density_from_the_cda_sheet(alloy, source, printed_lb_in3):
     ("S41600", "alloysintl_sheets", "7.80"), ("C65500", "atlas_c65500", "8.53"),
     # azom_c44300: density 8.53 g/cm3
     ("C44300", "azom_c44300", "8.53"),
+    # n05500_producer_sheet: Table 2, density 8.44 g/cm3 (0.305 lb/in3)
+    ("N05500", "n05500_producer_sheet", "8.44"),
 ])
 def test_alloy_density_from_its_data_sheet(alloy, source, printed):
     row = ALLOYS[alloy]
@@ -293,3 +295,40 @@ def test_copper_nickel_own_rate_from_the_cda_rates(column, printed_mm_yr):
     cu_ni = ALLOYS["C70600"]
     cr = 3.27e-3 * (row[column] / 0.01) * cu_ni["equivalent_weight_g_mol"] / cu_ni["density_g_cm3"]
     assert cr == pytest.approx(float(printed_mm_yr), rel=0.05)
+
+
+@pytest.mark.parametrize("alloy, source, printed", [
+    # aisi4140_web: MatWeb AISI 4140 (UNS G41400) density 7.85 g/cc; astm_a436_web:
+    # ASTM A436 Type 1 density 7.1 g/cm3; gray_iron_a48_web: gray cast iron ASTM A48
+    # Class 40 density 7.15 g/cc.
+    ("low_alloy_steel", "aisi4140_web", "7.85"),
+    ("austenitic_cast_iron", "astm_a436_web", "7.1"),
+    ("cast_iron", "gray_iron_a48_web", "7.15"),
+])
+def test_ferrous_alloy_density_from_its_sheet(alloy, source, printed):
+    row = ALLOYS[alloy]
+    assert row["density_source_id"] == source
+    assert row["density_g_cm3"] == pytest.approx(float(printed), abs=_half(printed))
+
+
+@pytest.mark.parametrize("alloy, source, parts", [
+    # aisi4140_web (ASTM A29, AISI 4140): Mn 0.75-1.00, Cr 0.80-1.10, Mo 0.15-0.25,
+    # Si 0.15-0.35 - every mid-point under 1 %, so iron is the whole balance.
+    ("low_alloy_steel", "aisi4140_web", [("Fe", 100.0, 2)]),
+    # astm_a436_web (ASTM A436 Type 1): Ni 13.5-17.5, Cu 5.50-7.50, Cr 1.5-2.5,
+    # Si 1.00-2.80, Mn 0.5-1.5 at mid-points; C and S only as maxima; Fe balance.
+    ("austenitic_cast_iron", "astm_a436_web",
+     [("Ni", 15.5, 2), ("Cu", 6.5, 2), ("Cr", 2.0, 3), ("Si", 1.9, 4), ("Mn", 1.0, 2),
+      ("Fe", 100 - 15.5 - 6.5 - 2.0 - 1.9 - 1.0, 2)]),
+    # gray_iron_a48_web: Fe 91.9-94.2 (balance), Si 1.8-2.3 at mid-points; carbon is
+    # not oxidised and the rest are under 1 %.
+    ("cast_iron", "gray_iron_a48_web", [("Fe", (91.9 + 94.2) / 2, 2), ("Si", 2.05, 4)]),
+])
+def test_g102_equivalent_weight_of_ferrous_alloys(alloy, source, parts):
+    # ASTM G102 method, CIAAW 2021 atomic weights; the table stores EW to 0.01 g/mol.
+    w = {"Fe": 55.845, "Ni": 58.6934, "Cu": 63.546, "Cr": 51.9961, "Si": 28.085,
+         "Mn": 54.938043}
+    ew = 1.0 / sum(f / 100 * n / w[e] for e, f, n in parts)
+    row = ALLOYS[alloy]
+    assert row["ew_source_id"] == source
+    assert row["equivalent_weight_g_mol"] == pytest.approx(ew, abs=0.005)
