@@ -155,8 +155,7 @@ def kinetics_cite(row):
     if row["b_a_mV_per_decade"] is not None:
         parts.append(("anodic slope: ", _kinetics_part(own, "ba_")))
     if any(own[c] is None for c in SHARED_COLUMNS):
-        parts.append(("oxygen-reduction slope and hydrogen exchange current of every "
-                      "metal: ", _kinetics_part(shared_kinetics())))
+        parts.append(("shared by every metal: ", _kinetics_part(shared_kinetics())))
     weakest = max((p["confidence"] for _, p in parts), key=data.CONFIDENCE.index)
     text = "; ".join(f"{label}{p['text']}" for label, p in parts)
     return {"source_id": parts[0][1]["source_id"], "text": text, "confidence": weakest}
