@@ -17,12 +17,20 @@ Sources (ids in data/sources.csv):
   gunmetal G1 0.025, cast nickel aluminium bronze AB2 0.06, high-tensile brass 0.18 mm/year.
 - mil_hdbk_1004_10: aluminium is protected by a 100 mV negative polarization shift and
   should not be driven more negative than -1.20 V against copper/copper sulfate.
+- abs_gn_cp_ships_repo: ABS Guidance Notes on Cathodic Protection of Ships (2017), Section 2
+  Table 1, minimum negative protection potentials vs Ag/AgCl/seawater: austenitic stainless
+  steel of PRE below 40 -0.60 V; copper alloys -0.45 to -0.60 V.
+- jcorr2001_cu_carbonate_chloride: anodic Tafel slope of copper in weak alkaline carbonate
+  solution containing chloride, region I, 60 mV/decade (with nishikata1990_cu_carbonate_chloride,
+  60 mV/decade in alkaline solution); applied to copper, copper alloys and copper-nickel.
+- jsms1981_ss_pitting_stress: pitting initiation potential of SUS 316 in 3 % NaCl without stress,
+  about +0.20 V vs SCE (applied to seawater by analogy).
 Values marked from memory are never checked here as values.
 """
 
 import pytest
 
-from noblegap.materials import anode_data, data, references
+from noblegap.materials import anode_data, cell_data, data, references
 
 
 @pytest.mark.parametrize("shape, printed", [
@@ -110,3 +118,38 @@ def test_copper_alloy_own_rate_from_the_one_year_raft_table(column, printed_mm_y
     nab = data.index("alloys")["C95800"]
     cr = 3.27e-3 * (row[column] / 0.01) * nab["equivalent_weight_g_mol"] / nab["density_g_cm3"]
     assert cr == pytest.approx(float(printed_mm_yr), rel=0.03)
+
+
+@pytest.mark.parametrize("alloy, printed", [
+    # Section 2 Table 1, minimum negative potential vs Ag/AgCl/seawater: austenitic stainless
+    # steel, PRE < 40, -0.60 V; copper alloys -0.45 to -0.60 V (the less negative end applied).
+    ("S31600", "-0.60"), ("C95800", "-0.45"),
+])
+def test_protection_potentials_abs_ship_guidance_table(alloy, printed):
+    crit = anode_data.criterion(alloy)
+    row = crit["row"]
+    assert row["source_id"] == "abs_gn_cp_ships_repo"
+    assert row["confidence"] == "handbook-compiled"
+    assert row["reference"] == "ag_agcl_seawater"
+    assert row["E_protect_V"] == pytest.approx(float(printed), abs=0.005)
+    assert crit["E_protect_V_SCE"] == pytest.approx(
+        references.to_scale(float(printed), "ag_agcl_seawater", "sce"), abs=1e-9)
+
+
+@pytest.mark.parametrize("row_id", ["copper", "copper_alloy", "copper_nickel"])
+def test_copper_anodic_slope_weak_alkaline_chloride_carbonate(row_id):
+    # Abstract: region I (Cu(I) dissolution) Tafel slope 60 mV/decade.
+    row = data.index("cell_kinetics")[row_id]
+    assert row["ba_source_id"] == "jcorr2001_cu_carbonate_chloride"
+    assert row["ba_confidence"] == "handbook-compiled"
+    assert row["b_a_mV_per_decade"] == pytest.approx(60, abs=0.5)
+
+
+def test_316_breakdown_potential_3pct_nacl():
+    # Abstract, result (1): SUS 316 about +0.20 V (vs. S.C.E.) under no stress.
+    row = cell_data.kinetics_row("S31600")
+    assert row["id"] == "stainless_molybdenum"
+    assert row["eb_source_id"] == "jsms1981_ss_pitting_stress"
+    assert row["eb_confidence"] == "handbook-compiled"
+    assert row["E_b_V_SCE"] == pytest.approx(0.20, abs=0.005)
+    assert "breakdown potential: " in cell_data.kinetics_cite(row)["text"]
