@@ -25,6 +25,8 @@ Sources (ids in data/sources.csv):
   60 mV/decade in alkaline solution); applied to copper, copper alloys and copper-nickel.
 - jsms1981_ss_pitting_stress: pitting initiation potential of SUS 316 in 3 % NaCl without stress,
   about +0.20 V vs SCE (applied to seawater by analogy).
+- baugh1979_zinc_nacl: zinc in molar NaCl at pH 3.8, anodic slope approx. 25 mV per decade
+  (applied to seawater by analogy).
 Values marked from memory are never checked here as values.
 """
 
@@ -153,3 +155,12 @@ def test_316_breakdown_potential_3pct_nacl():
     assert row["eb_confidence"] == "handbook-compiled"
     assert row["E_b_V_SCE"] == pytest.approx(0.20, abs=0.005)
     assert "breakdown potential: " in cell_data.kinetics_cite(row)["text"]
+
+
+def test_zinc_anodic_slope_molar_nacl():
+    # Introduction, Figure 2: the anodic curves have an identical slope (approx. 25 mV per
+    # decade) in NH4Cl and in NaCl at pH 3.8.
+    row = data.index("cell_kinetics")["zinc"]
+    assert row["ba_source_id"] == "baugh1979_zinc_nacl"
+    assert row["ba_confidence"] == "handbook-compiled"
+    assert row["b_a_mV_per_decade"] == pytest.approx(25, abs=0.5)
