@@ -27,6 +27,7 @@ Sources (ids in data/sources.csv):
   about +0.20 V vs SCE (applied to seawater by analogy).
 - baugh1979_zinc_nacl: zinc in molar NaCl at pH 3.8, anodic slope approx. 25 mV per decade
   (applied to seawater by analogy).
+- venice_system_web: Venice system (1959) salinity classes, mesohaline 5 to 18.
 Values marked from memory are never checked here as values.
 """
 
@@ -85,11 +86,13 @@ def test_zinc_own_rate_from_the_printed_sea_water_band(column, printed_um_yr):
     assert cr_um == pytest.approx(float(printed_um_yr), rel=0.03)
 
 
+@pytest.mark.parametrize("env", ["seawater_quiescent", "seawater_flowing"])
 @pytest.mark.parametrize("column, printed", [
     ("T_low_degC", "-1.9"), ("T_degC", "17"), ("T_high_degC", "30"),
 ])
-def test_quiescent_seawater_temperatures(column, printed):
-    row = data.index("electrolytes")["seawater_quiescent"]
+def test_natural_seawater_temperatures(env, column, printed):
+    # Natural seawater, still or flowing: the temperatures only set the conductivity.
+    row = data.index("electrolytes")[env]
     assert row["T_source_id"] == "marine_ecology_temps_web"
     decimals = len(printed.split(".")[1]) if "." in printed else 0
     assert row[column] == pytest.approx(float(printed), abs=0.5 * 10 ** -decimals)
@@ -164,3 +167,14 @@ def test_zinc_anodic_slope_molar_nacl():
     assert row["ba_source_id"] == "baugh1979_zinc_nacl"
     assert row["ba_confidence"] == "handbook-compiled"
     assert row["b_a_mV_per_decade"] == pytest.approx(25, abs=0.5)
+
+
+@pytest.mark.parametrize("column, printed", [
+    # Venice system: mesohaline from 5 to 18 (the class bounds); likely the middle.
+    ("salinity_low_psu", "5"), ("salinity_high_psu", "18"),
+])
+def test_brackish_salinity_venice_system(column, printed):
+    row = data.index("electrolytes")["brackish"]
+    assert row["salinity_source_id"] == "venice_system_web"
+    assert row[column] == pytest.approx(float(printed), abs=0.5)
+    assert row["salinity_psu"] == pytest.approx((5 + 18) / 2, abs=0.05)
