@@ -28,6 +28,7 @@ Sources (ids in data/sources.csv):
 - baugh1979_zinc_nacl: zinc in molar NaCl at pH 3.8, anodic slope approx. 25 mV per decade
   (applied to seawater by analogy).
 - venice_system_web: Venice system (1959) salinity classes, mesohaline 5 to 18.
+- usgs_stream_temps_web: stream temperatures between 0 and 20 °C in winter, peaking around 30 °C.
 Values marked from memory are never checked here as values.
 """
 
@@ -178,3 +179,14 @@ def test_brackish_salinity_venice_system(column, printed):
     assert row["salinity_source_id"] == "venice_system_web"
     assert row[column] == pytest.approx(float(printed), abs=0.5)
     assert row["salinity_psu"] == pytest.approx((5 + 18) / 2, abs=0.05)
+
+
+@pytest.mark.parametrize("env", ["freshwater", "brackish"])
+def test_fresh_and_brackish_water_temperatures_usgs_streams(env):
+    # Stream temperatures between 0 and 20 °C in winter, peaking around 30 °C in summer;
+    # likely the middle of the band.
+    row = data.index("electrolytes")[env]
+    assert row["T_source_id"] == "usgs_stream_temps_web"
+    assert row["T_low_degC"] == pytest.approx(0, abs=0.5)
+    assert row["T_high_degC"] == pytest.approx(30, abs=0.5)
+    assert row["T_degC"] == pytest.approx(15, abs=0.05)
