@@ -29,6 +29,8 @@ Sources (ids in data/sources.csv):
   (applied to seawater by analogy).
 - venice_system_web: Venice system (1959) salinity classes, mesohaline 5 to 18.
 - usgs_stream_temps_web: stream temperatures between 0 and 20 °C in winter, peaking around 30 °C.
+- corrosion_doctors_cp_current: bare steel in fresh water at zero or low velocities needs 22 to
+  65 mA/m2 of protective current.
 Values marked from memory are never checked here as values.
 """
 
@@ -190,3 +192,13 @@ def test_fresh_and_brackish_water_temperatures_usgs_streams(env):
     assert row["T_low_degC"] == pytest.approx(0, abs=0.5)
     assert row["T_high_degC"] == pytest.approx(30, abs=0.5)
     assert row["T_degC"] == pytest.approx(15, abs=0.05)
+
+
+@pytest.mark.parametrize("column, printed_mA_m2", [
+    # 22 to 65 mA/m2 for fresh water at zero or low velocities; likely the middle.
+    ("i_L_low_A_m2", "22"), ("i_L_high_A_m2", "65"), ("i_L_A_m2", "43.5"),
+])
+def test_fresh_water_oxygen_limit_from_protective_current(column, printed_mA_m2):
+    row = data.index("electrolytes")["freshwater"]
+    assert row["iL_source_id"] == "corrosion_doctors_cp_current"
+    assert 1000 * row[column] == pytest.approx(float(printed_mA_m2), abs=0.05)
