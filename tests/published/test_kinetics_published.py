@@ -31,6 +31,8 @@ Sources (ids in data/sources.csv):
 - usgs_stream_temps_web: stream temperatures between 0 and 20 °C in winter, peaking around 30 °C.
 - corrosion_doctors_cp_current: bare steel in fresh water at zero or low velocities needs 22 to
   65 mA/m2 of protective current.
+- sato1973_al_pitting_ph: pure aluminium in 0.5 N NaCl at pH 8, second pitting potential
+  -0.70 V vs SCE (applied to seawater and to the aluminium alloys by analogy).
 Values marked from memory are never checked here as values.
 """
 
@@ -202,3 +204,12 @@ def test_fresh_water_oxygen_limit_from_protective_current(column, printed_mA_m2)
     row = data.index("electrolytes")["freshwater"]
     assert row["iL_source_id"] == "corrosion_doctors_cp_current"
     assert 1000 * row[column] == pytest.approx(float(printed_mA_m2), abs=0.05)
+
+
+def test_aluminium_breakdown_potential_half_normal_nacl_ph8():
+    # Abstract, result (3): at pH 8 the 2nd pitting potential was -0.70 V (vs. S.C.E.).
+    row = cell_data.kinetics_row("A95083")
+    assert row["id"] == "aluminium"
+    assert row["eb_source_id"] == "sato1973_al_pitting_ph"
+    assert row["eb_confidence"] == "handbook-compiled"
+    assert row["E_b_V_SCE"] == pytest.approx(-0.70, abs=0.005)
