@@ -232,7 +232,8 @@ def test_flat_passive_metal_needs_no_anodic_slope():
 
 def test_kinetics_citation_is_as_weak_as_its_weakest_value():
     # The headline's weakest-source line reads the kinetics citation: a row whose own
-    # current is sourced but whose slopes are recalled must still read "from memory".
+    # current is sourced but whose slopes or breakdown potential are recalled must still
+    # read "from memory".
     from noblegap.materials import cell_data, data
     for alloy_id in ("carbon_steel", "C95800", "S31600", "A95083", "zinc", "titanium"):
         row = cell_data.kinetics_row(alloy_id)
@@ -242,5 +243,7 @@ def test_kinetics_citation_is_as_weak_as_its_weakest_value():
             grades.append(cell_data.shared_kinetics()["confidence"])
         if row["b_a_mV_per_decade"] is not None:
             grades.append(own["ba_confidence"])
+        if row["E_b_V_SCE"] is not None:
+            grades.append(own["eb_confidence"])
         weakest = max(grades, key=data.CONFIDENCE.index)
         assert cell_data.kinetics_cite(row)["confidence"] == weakest, alloy_id

@@ -17,12 +17,28 @@ Sources (ids in data/sources.csv):
   gunmetal G1 0.025, cast nickel aluminium bronze AB2 0.06, high-tensile brass 0.18 mm/year.
 - mil_hdbk_1004_10: aluminium is protected by a 100 mV negative polarization shift and
   should not be driven more negative than -1.20 V against copper/copper sulfate.
+- abs_gn_cp_ships_repo: ABS Guidance Notes on Cathodic Protection of Ships (2017), Section 2
+  Table 1, minimum negative protection potentials vs Ag/AgCl/seawater: austenitic stainless
+  steel of PRE below 40 -0.60 V; copper alloys -0.45 to -0.60 V.
+- jcorr2001_cu_carbonate_chloride: anodic Tafel slope of copper in weak alkaline carbonate
+  solution containing chloride, region I, 60 mV/decade (with nishikata1990_cu_carbonate_chloride,
+  60 mV/decade in alkaline solution); applied to copper, copper alloys and copper-nickel.
+- jsms1981_ss_pitting_stress: pitting initiation potential of SUS 316 in 3 % NaCl without stress,
+  about +0.20 V vs SCE (applied to seawater by analogy).
+- baugh1979_zinc_nacl: zinc in molar NaCl at pH 3.8, anodic slope approx. 25 mV per decade
+  (applied to seawater by analogy).
+- venice_system_web: Venice system (1959) salinity classes, mesohaline 5 to 18.
+- usgs_stream_temps_web: stream temperatures between 0 and 20 °C in winter, peaking around 30 °C.
+- corrosion_doctors_cp_current: bare steel in fresh water at zero or low velocities needs 22 to
+  65 mA/m2 of protective current.
+- sato1973_al_pitting_ph: pure aluminium in 0.5 N NaCl at pH 8, second pitting potential
+  -0.70 V vs SCE (applied to seawater and to the aluminium alloys by analogy).
 Values marked from memory are never checked here as values.
 """
 
 import pytest
 
-from noblegap.materials import anode_data, data, references
+from noblegap.materials import anode_data, cell_data, data, references
 
 
 @pytest.mark.parametrize("shape, printed", [
@@ -75,11 +91,13 @@ def test_zinc_own_rate_from_the_printed_sea_water_band(column, printed_um_yr):
     assert cr_um == pytest.approx(float(printed_um_yr), rel=0.03)
 
 
+@pytest.mark.parametrize("env", ["seawater_quiescent", "seawater_flowing"])
 @pytest.mark.parametrize("column, printed", [
     ("T_low_degC", "-1.9"), ("T_degC", "17"), ("T_high_degC", "30"),
 ])
-def test_quiescent_seawater_temperatures(column, printed):
-    row = data.index("electrolytes")["seawater_quiescent"]
+def test_natural_seawater_temperatures(env, column, printed):
+    # Natural seawater, still or flowing: the temperatures only set the conductivity.
+    row = data.index("electrolytes")[env]
     assert row["T_source_id"] == "marine_ecology_temps_web"
     decimals = len(printed.split(".")[1]) if "." in printed else 0
     assert row[column] == pytest.approx(float(printed), abs=0.5 * 10 ** -decimals)
@@ -110,3 +128,88 @@ def test_copper_alloy_own_rate_from_the_one_year_raft_table(column, printed_mm_y
     nab = data.index("alloys")["C95800"]
     cr = 3.27e-3 * (row[column] / 0.01) * nab["equivalent_weight_g_mol"] / nab["density_g_cm3"]
     assert cr == pytest.approx(float(printed_mm_yr), rel=0.03)
+
+
+@pytest.mark.parametrize("alloy, printed", [
+    # Section 2 Table 1, minimum negative potential vs Ag/AgCl/seawater: austenitic stainless
+    # steel, PRE < 40, -0.60 V; copper alloys -0.45 to -0.60 V (the less negative end applied).
+    ("S31600", "-0.60"), ("C95800", "-0.45"),
+])
+def test_protection_potentials_abs_ship_guidance_table(alloy, printed):
+    crit = anode_data.criterion(alloy)
+    row = crit["row"]
+    assert row["source_id"] == "abs_gn_cp_ships_repo"
+    assert row["confidence"] == "handbook-compiled"
+    assert row["reference"] == "ag_agcl_seawater"
+    assert row["E_protect_V"] == pytest.approx(float(printed), abs=0.005)
+    assert crit["E_protect_V_SCE"] == pytest.approx(
+        references.to_scale(float(printed), "ag_agcl_seawater", "sce"), abs=1e-9)
+
+
+@pytest.mark.parametrize("row_id", ["copper", "copper_alloy", "copper_nickel"])
+def test_copper_anodic_slope_weak_alkaline_chloride_carbonate(row_id):
+    # Abstract: region I (Cu(I) dissolution) Tafel slope 60 mV/decade.
+    row = data.index("cell_kinetics")[row_id]
+    assert row["ba_source_id"] == "jcorr2001_cu_carbonate_chloride"
+    assert row["ba_confidence"] == "handbook-compiled"
+    assert row["b_a_mV_per_decade"] == pytest.approx(60, abs=0.5)
+
+
+def test_316_breakdown_potential_3pct_nacl():
+    # Abstract, result (1): SUS 316 about +0.20 V (vs. S.C.E.) under no stress.
+    row = cell_data.kinetics_row("S31600")
+    assert row["id"] == "stainless_molybdenum"
+    assert row["eb_source_id"] == "jsms1981_ss_pitting_stress"
+    assert row["eb_confidence"] == "handbook-compiled"
+    assert row["E_b_V_SCE"] == pytest.approx(0.20, abs=0.005)
+    assert "breakdown potential: " in cell_data.kinetics_cite(row)["text"]
+
+
+def test_zinc_anodic_slope_molar_nacl():
+    # Introduction, Figure 2: the anodic curves have an identical slope (approx. 25 mV per
+    # decade) in NH4Cl and in NaCl at pH 3.8.
+    row = data.index("cell_kinetics")["zinc"]
+    assert row["ba_source_id"] == "baugh1979_zinc_nacl"
+    assert row["ba_confidence"] == "handbook-compiled"
+    assert row["b_a_mV_per_decade"] == pytest.approx(25, abs=0.5)
+
+
+@pytest.mark.parametrize("column, printed", [
+    # Venice system: mesohaline from 5 to 18 (the class bounds); likely the middle.
+    ("salinity_low_psu", "5"), ("salinity_high_psu", "18"),
+])
+def test_brackish_salinity_venice_system(column, printed):
+    row = data.index("electrolytes")["brackish"]
+    assert row["salinity_source_id"] == "venice_system_web"
+    assert row[column] == pytest.approx(float(printed), abs=0.5)
+    assert row["salinity_psu"] == pytest.approx((5 + 18) / 2, abs=0.05)
+
+
+@pytest.mark.parametrize("env", ["freshwater", "brackish"])
+def test_fresh_and_brackish_water_temperatures_usgs_streams(env):
+    # Stream temperatures between 0 and 20 °C in winter, peaking around 30 °C in summer;
+    # likely the middle of the band.
+    row = data.index("electrolytes")[env]
+    assert row["T_source_id"] == "usgs_stream_temps_web"
+    assert row["T_low_degC"] == pytest.approx(0, abs=0.5)
+    assert row["T_high_degC"] == pytest.approx(30, abs=0.5)
+    assert row["T_degC"] == pytest.approx(15, abs=0.05)
+
+
+@pytest.mark.parametrize("column, printed_mA_m2", [
+    # 22 to 65 mA/m2 for fresh water at zero or low velocities; likely the middle.
+    ("i_L_low_A_m2", "22"), ("i_L_high_A_m2", "65"), ("i_L_A_m2", "43.5"),
+])
+def test_fresh_water_oxygen_limit_from_protective_current(column, printed_mA_m2):
+    row = data.index("electrolytes")["freshwater"]
+    assert row["iL_source_id"] == "corrosion_doctors_cp_current"
+    assert 1000 * row[column] == pytest.approx(float(printed_mA_m2), abs=0.05)
+
+
+def test_aluminium_breakdown_potential_half_normal_nacl_ph8():
+    # Abstract, result (3): at pH 8 the 2nd pitting potential was -0.70 V (vs. S.C.E.).
+    row = cell_data.kinetics_row("A95083")
+    assert row["id"] == "aluminium"
+    assert row["eb_source_id"] == "sato1973_al_pitting_ph"
+    assert row["eb_confidence"] == "handbook-compiled"
+    assert row["E_b_V_SCE"] == pytest.approx(-0.70, abs=0.005)

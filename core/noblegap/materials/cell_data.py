@@ -142,10 +142,10 @@ def shared_kinetics():
 def kinetics_cite(row):
     """One citation for every value of a kinetics row the model uses.
 
-    ``row`` is a :func:`kinetics_row` result. The own current density (and
-    breakdown potential) cite the row's own source; the anodic slope its
-    ``ba_`` source where the model uses it (an active metal, or a passive one
-    with a breakdown potential); the oxygen-reduction slope and hydrogen
+    ``row`` is a :func:`kinetics_row` result. The own current density cites
+    the row's own source; the breakdown potential its ``eb_`` source; the
+    anodic slope its ``ba_`` source where the model uses it (an active metal,
+    or a passive one with a breakdown potential); the oxygen-reduction slope and hydrogen
     exchange current the ``shared`` row where the metal's row leaves them blank.
     The text joins the three; ``confidence`` is the weakest of them, so that a
     headline never shows a firmer grade than its least certain input.
@@ -154,6 +154,8 @@ def kinetics_cite(row):
     parts = [("", _kinetics_part(own))]
     if row["b_a_mV_per_decade"] is not None:
         parts.append(("anodic slope: ", _kinetics_part(own, "ba_")))
+    if row["E_b_V_SCE"] is not None:
+        parts.append(("breakdown potential: ", _kinetics_part(own, "eb_")))
     if any(own[c] is None for c in SHARED_COLUMNS):
         parts.append(("shared by every metal: ", _kinetics_part(shared_kinetics())))
     weakest = max((p["confidence"] for _, p in parts), key=data.CONFIDENCE.index)

@@ -99,7 +99,7 @@ VALUE_SOURCES = {
                     "copper_low_um_per_yr": "", "copper_high_um_per_yr": "",
                     "aluminium_low_g_m2_per_yr": "", "aluminium_high_g_m2_per_yr": ""},
     "cell_kinetics": {"i_corr_low_A_m2": "", "i_corr_A_m2": "", "i_corr_high_A_m2": "",
-                      "b_a_mV_per_decade": "ba_", "E_b_V_SCE": "", "b_c_mV_per_decade": "",
+                      "b_a_mV_per_decade": "ba_", "E_b_V_SCE": "eb_", "b_c_mV_per_decade": "",
                       "i0_H_A_m2": ""},
     "anodes": {"E_cc_V": "", "capacity_Ah_kg": "cap_", "density_g_cm3": "density_",
                "rho_min_ohm_m": "use_", "rho_max_ohm_m": "use_"},
