@@ -322,27 +322,46 @@ def _solve_case(anode_el, cathode_el, layout, rho, film, isolated, R_extra_ohm, 
                                                     lay.site_radius_m, film))
         return sol, A_a_eff, A_c_eff, R, new_lam
 
-    sol = None
-    visited = []          # (λ, log(λ_new/λ)) of every damped step that did not settle
-    step = 3e-3           # how far the anode potential moved in the last step [V]
-    for _ in range(SPREAD_ITERATIONS):
-        prev = sol
-        state = at(lam, sol.E_anode_V if sol is not None else None, step)
-        if state is None:
-            break
-        sol, A_a_eff, A_c_eff, R, new_lam = state
-        if prev is not None:
-            step = 0.5 * abs(sol.E_anode_V - prev.E_anode_V)
-        if new_lam is None:
-            break
-        phi = math.log(new_lam / lam)
-        if abs(phi) <= SPREAD_TOLERANCE:
-            break
-        visited.append((lam, phi))
-        lam = math.sqrt(lam * new_lam)
-    else:
-        lam, state = _bisect_spread(at, visited, sol, lay.site_radius_m)
-        sol, A_a_eff, A_c_eff, R, _ = state
+    def settle(lam):
+        """The damped fixed point from λ: (λ, sol, A_a_eff, A_c_eff, R)."""
+        sol = None
+        visited = []          # (λ, log(λ_new/λ)) of every damped step that did not settle
+        step = 3e-3           # how far the anode potential moved in the last step [V]
+        for _ in range(SPREAD_ITERATIONS):
+            prev = sol
+            state = at(lam, sol.E_anode_V if sol is not None else None, step)
+            if state is None:
+                break
+            sol, A_a_eff, A_c_eff, R, new_lam = state
+            if prev is not None:
+                step = 0.5 * abs(sol.E_anode_V - prev.E_anode_V)
+            if new_lam is None:
+                break
+            phi = math.log(new_lam / lam)
+            if abs(phi) <= SPREAD_TOLERANCE:
+                break
+            visited.append((lam, phi))
+            lam = math.sqrt(lam * new_lam)
+        else:
+            lam, state = _bisect_spread(at, visited, sol, lay.site_radius_m)
+            sol, A_a_eff, A_c_eff, R, _ = state
+        return lam, sol, A_a_eff, A_c_eff, R
+
+    lam, sol, A_a_eff, A_c_eff, R = settle(lam)
+    # A passive anode around the sites can have two consistent states: passive
+    # over a wide band (its flat passive current spreads the galvanic current
+    # far), or pitting over a narrow one (the current concentrated next to the
+    # sites holds it above its breakdown potential). Which one a joint reaches
+    # depends on its history; a screening result takes the pitting state
+    # wherever it is consistent, found by settling again from the sites' own
+    # size. (Taking whichever state the first settling reached made the rate
+    # jump down and up again as fasteners were added.)
+    E_b = anode_el.E_b_V if anode_el.passive else None
+    if (E_b is not None and lay.surrounds and not sur_is_cathode and sol is not None
+            and sol.current_A > 0 and sol.E_anode_V <= E_b):
+        pitting = settle(min(lam, lay.site_radius_m))
+        if pitting[1] is not None and pitting[1].E_anode_V > E_b:
+            lam, sol, A_a_eff, A_c_eff, R = pitting
     spread = lam if (lay.surrounds and lam < lam_cap) else math.inf
     return {"solution": sol, "A_anode_eff_m2": A_a_eff, "A_cathode_eff_m2": A_c_eff,
             "A_anode_m2": A_an, "A_cathode_m2": A_ca, "R_ohm": R, "spread_m": spread,
