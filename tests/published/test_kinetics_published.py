@@ -33,6 +33,8 @@ Sources (ids in data/sources.csv):
   65 mA/m2 of protective current.
 - sato1973_al_pitting_ph: pure aluminium in 0.5 N NaCl at pH 8, second pitting potential
   -0.70 V vs SCE (applied to seawater and to the aluminium alloys by analogy).
+- duan2019_316l_sea: 316L exposed one year in the sea, highest corrosion rate 0.96 µm/y; the
+  3000 m rate is 3.2 times the shallow-sea rate (abstract).
 Values marked from memory are never checked here as values.
 """
 
@@ -213,3 +215,18 @@ def test_aluminium_breakdown_potential_half_normal_nacl_ph8():
     assert row["eb_source_id"] == "sato1973_al_pitting_ph"
     assert row["eb_confidence"] == "handbook-compiled"
     assert row["E_b_V_SCE"] == pytest.approx(-0.70, abs=0.005)
+
+
+@pytest.mark.parametrize("column, printed_um_yr", [
+    # Abstract: highest corrosion rate 0.96 µm/y; the 3000 m rate is 3.2 times the
+    # shallow-sea rate (0.96 / 3.2 = 0.30 µm/y, taken as the low and likely cases).
+    ("i_corr_low_A_m2", 0.96 / 3.2), ("i_corr_A_m2", 0.96 / 3.2), ("i_corr_high_A_m2", 0.96),
+])
+def test_316_own_current_one_year_sea_exposure(column, printed_um_yr):
+    row = cell_data.kinetics_row("S31600")
+    assert row["id"] == "stainless_molybdenum"
+    assert row["source_id"] == "duan2019_316l_sea"
+    assert row["confidence"] == "handbook-compiled"
+    alloy = data.index("alloys")["S31600"]
+    cr_mm = 3.27e-3 * (row[column] / 0.01) * alloy["equivalent_weight_g_mol"] / alloy["density_g_cm3"]
+    assert cr_mm * 1000 == pytest.approx(printed_um_yr, rel=0.02)
