@@ -173,6 +173,15 @@ export function applyBase({ header, pages }, target, base) {
   }
 }
 
+/** The absolute URL a fetch call asks for (a string, URL or Request), or null. */
+function hrefOf(input) {
+  try {
+    return new URL(String(input instanceof Request ? input.url : input), location).href;
+  } catch {
+    return null; // not a URL these wrappers are about
+  }
+}
+
 /**
  * Watch how Pyodide loads its runtime (wasmURL, the browser's), until
  * release(). memory() is then the runtime's WebAssembly memory: that of the
@@ -210,13 +219,7 @@ export function captureRuntimeWasm(wasmURL = null, packedURL = null, packedRespo
   let seen = null; // the response promise handed to Pyodide, and the compile
   const inBrowser = typeof location !== "undefined" && wasmURL !== null && original.instantiateStreaming;
   if (inBrowser) {
-    const isRuntime = (input) => {
-      try {
-        return new URL(String(input instanceof Request ? input.url : input), location).href === wasmURL;
-      } catch {
-        return false;
-      }
-    };
+    const isRuntime = (input) => hrefOf(input) === wasmURL;
     const plain = () => W.compileStreaming(original.fetch.call(globalThis, wasmURL, { credentials: "same-origin" }));
     const compile = async () => {
       if (packedURL === null || typeof DecompressionStream !== "function") return plain();
@@ -296,13 +299,7 @@ export function serveEmptyZip(url) {
   empty.set([0x50, 0x4b, 0x05, 0x06]);
   let released = false;
   const wrapper = function (input, init) {
-    let href = null;
-    try {
-      href = new URL(String(input instanceof Request ? input.url : input), location).href;
-    } catch {
-      // not a URL this wrapper is about
-    }
-    if (released || href !== url) return original.call(this, input, init);
+    if (released || hrefOf(input) !== url) return original.call(this, input, init);
     return Promise.resolve(new Response(empty, { headers: { "Content-Type": "application/zip" } }));
   };
   globalThis.fetch = wrapper;
@@ -338,13 +335,7 @@ export function checkFetched(url, expected, earlyResponse = null) {
   const name = url.split("/").pop();
   let released = false;
   const wrapper = function (input, init) {
-    let href = null;
-    try {
-      href = new URL(String(input instanceof Request ? input.url : input), location).href;
-    } catch {
-      // not a URL this wrapper is about
-    }
-    if (released || href !== url) return original.call(this, input, init);
+    if (released || hrefOf(input) !== url) return original.call(this, input, init);
     // the first request may have been made already (worker.js)
     const fetched = earlyResponse ?? original.call(this, input, init);
     earlyResponse = null;
