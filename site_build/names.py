@@ -31,6 +31,10 @@ NAMES = {
     "messages": {"progress": "progress", "ready": "ready", "fatal": "fatal", "notice": "notice"},
     "calls": {"run": "run", "describe": "describe"},
     "modes": {"normal": "normal", "faststart": "snapshot"},
+    # A file the service worker unpacked from its gzip twin and checked
+    # against the build's sha256 carries that sha256 in this header (sw.js),
+    # so a later visit need not hash it again (engine/faststart/start.mjs).
+    "checked_header": "X-Noblegap-Checked-Sha256",
 }
 
 

@@ -18,6 +18,7 @@ import shutil
 from pathlib import Path
 
 from .common import BuildError, sha256_file
+from .names import NAMES
 from .paths import CORE, DATA, HERE, MANIFEST_NAME, PINS, ROOT, SITE_SRC, STATIC, project_meta
 
 SW_NAME = "sw.js"
@@ -75,12 +76,15 @@ def copy_static(site: Path, faststart: bool) -> None:
         shutil.copyfile(p, site / "examples" / p.name)
 
 
-def write_manifest_and_sw(site: Path, inputs: str, pin: dict, twins: dict[str, str] | None = None) -> dict:
+def write_manifest_and_sw(site: Path, inputs: str, pin: dict,
+                          twins: dict[str, dict[str, str]] | None = None) -> dict:
     """build-manifest.json, and sw.js with the files to precache.
 
-    ``twins`` maps a plain file to its gzip twin (the fast start's
-    pre-compressed runtime): the service worker precaches the twin only and
-    serves the plain file by unpacking it, so no byte is downloaded twice.
+    ``twins`` maps a plain file to {"packed": its gzip twin, "sha256": the
+    plain bytes' sha256} (the fast start's pre-compressed runtime and
+    snapshot): the service worker precaches the twin only and keeps the plain
+    file by unpacking it once, checked against that sha256, so no byte is
+    downloaded twice.
     """
     twins = twins or {}
     files = {}
@@ -105,7 +109,8 @@ def write_manifest_and_sw(site: Path, inputs: str, pin: dict, twins: dict[str, s
     text = (STATIC / SW_NAME).read_text()
     if text.count(SW_MARKER) != 1:
         raise BuildError(f"site_src/static/{SW_NAME} must contain {SW_MARKER} exactly once")
-    build = {"cache": cache_name, "files": sorted(set(files) - set(twins)), "unpack": twins}
+    build = {"cache": cache_name, "files": sorted(set(files) - set(twins)), "unpack": twins,
+             "checked_header": NAMES["checked_header"]}
     (site / SW_NAME).write_text(text.replace(SW_MARKER, json.dumps(build, separators=(",", ":"))))
     (site / MANIFEST_NAME).write_text(json.dumps(manifest, indent=1) + "\n")
     return manifest

@@ -83,10 +83,11 @@ def available(pin: dict) -> bool:
     return True
 
 
-def build(site: Path, pyodide_dir: Path, pin: dict, hooks) -> dict[str, str]:
+def build(site: Path, pyodide_dir: Path, pin: dict, hooks) -> dict[str, dict[str, str]]:
     """The stage: trimmed standard library, memory snapshot, pre-compressed
     runtime, into ``site`` (which has its lock file, static files and
-    names.json already). Returns {plain file: gzip twin} for the service worker."""
+    names.json already). Returns {plain file: {"packed": gzip twin, "sha256": plain sha256}}
+    for the service worker."""
     from . import compressed, snapshot, stdlib
 
     stdlib.write_stdlib(pyodide_dir, site, pin)

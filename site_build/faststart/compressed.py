@@ -15,6 +15,7 @@ of the site, so a later visit reads the container without unpacking it.
 from __future__ import annotations
 
 import gzip
+import json
 import shutil
 from pathlib import Path
 
@@ -23,9 +24,11 @@ from ..paths import CACHE, PACKAGES_DIR, PYODIDE_DIR
 from . import FASTSTART_NAMES
 
 
-def write_compressed(site: Path) -> dict[str, str]:
-    """Write each gzip twin (cached by content); returns {plain path: gzip path} in the site,
-    the snapshot's unpacked name (not a file of the site, only of the offline copy) included."""
+def write_compressed(site: Path) -> dict[str, dict[str, str]]:
+    """Write each gzip twin (cached by content); returns {plain path: {"packed": gzip path,
+    "sha256": the plain bytes' sha256}} in the site, the snapshot's unpacked name (not a
+    file of the site, only of the offline copy) included. The service worker checks what
+    it unpacks against that sha256 before it keeps it (sw.js)."""
     twins = {}
     for plain, packed in FASTSTART_NAMES["compressed"].items():
         source = site / PYODIDE_DIR / plain
@@ -36,8 +39,9 @@ def write_compressed(site: Path) -> dict[str, str]:
             tmp.write_bytes(gzip.compress(source.read_bytes(), compresslevel=9, mtime=0))
             tmp.replace(cached)
         shutil.copyfile(cached, site / PYODIDE_DIR / packed)
-        twins[f"{PYODIDE_DIR}/{plain}"] = f"{PYODIDE_DIR}/{packed}"
+        twins[f"{PYODIDE_DIR}/{plain}"] = {"packed": f"{PYODIDE_DIR}/{packed}", "sha256": sha256_file(source)}
         log(f"{plain}: {source.stat().st_size / 1e6:.1f} MB, pre-compressed {cached.stat().st_size / 1e6:.1f} MB")
-    twins[f"{PACKAGES_DIR}/{FASTSTART_NAMES['unpacked_snapshot_file']}"] = (
-        f"{PACKAGES_DIR}/{FASTSTART_NAMES['snapshot_file']}")
+    info = json.loads((site / PACKAGES_DIR / FASTSTART_NAMES["info_file"]).read_text())
+    twins[f"{PACKAGES_DIR}/{FASTSTART_NAMES['unpacked_snapshot_file']}"] = {
+        "packed": f"{PACKAGES_DIR}/{FASTSTART_NAMES['snapshot_file']}", "sha256": info["raw_sha256"]}
     return twins

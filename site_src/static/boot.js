@@ -1,9 +1,9 @@
-// Starts the engine worker as early as the page can: calc pages load this
-// module with <script type="module" async> in <head>, so it runs as soon as
-// it has arrived, before the page has been parsed and before app.js and its
-// imports have been fetched. app.js imports it too: a module runs once per
-// page, so there is one worker whichever script gets here first. The
-// worker's messages are kept until app.js takes them with takeEarly().
+// The page's engine worker. engine-start.js (a classic script at the top of
+// <head>) normally started it before the page was parsed, and kept its
+// messages: this module adopts that worker. When that script did not run,
+// the worker starts here; app.js imports this module, so there is one worker
+// either way. The worker's messages are kept until app.js takes them with
+// takeEarly().
 //
 // The worker's name says whether a service worker serves this page: the
 // fast start then compiles the runtime from the offline copy's stored plain
@@ -15,11 +15,16 @@ const WORKER_OPTIONS = {
   name: served ? "noblegap engine (offline copy)" : "noblegap engine",
 };
 
-export let worker = new Worker(WORKER_URL, WORKER_OPTIONS);
-const kept = [];
-const keep = (event) => kept.push(event);
-worker.addEventListener("message", keep);
-worker.addEventListener("error", keep);
+const early = globalThis.noblegapEarlyEngine;
+const adopted = early && early.url === WORKER_URL.href ? early : null;
+if (early) delete globalThis.noblegapEarlyEngine;
+export let worker = adopted ? adopted.worker : new Worker(WORKER_URL, WORKER_OPTIONS);
+const kept = adopted ? adopted.kept : [];
+const keep = adopted ? adopted.keep : (event) => kept.push(event);
+if (!adopted) {
+  worker.addEventListener("message", keep);
+  worker.addEventListener("error", keep);
+}
 
 /** Stop keeping messages; returns the events received so far, in order. */
 export function takeEarly() {

@@ -8,12 +8,14 @@ service worker of an earlier test cannot answer for the routed URLs.
 from __future__ import annotations
 
 import gzip
+import hashlib
 import json
 
 import pytest
 
 from conftest import wait_for, wait_live
 from noblegap import api
+from site_build.names import NAMES
 
 SNAPSHOT_INFO = "**/packages/noblegap-snapshot.json"
 SNAPSHOT_FILE = "**/packages/noblegap-snapshot.gzip"
@@ -202,23 +204,37 @@ def test_other_pyodide_or_format_falls_back(page, context, server, site_dir, fie
     _fallback_checks(page, server)
 
 
+_COUNT_WORKERS = """
+    (() => {
+      window.__workers = [];
+      const Native = window.Worker;
+      window.Worker = class extends Native {
+        constructor(...args) { super(...args); window.__workers.push(document.readyState); }
+      };
+    })();
+"""
+
+
 def test_one_engine_worker_started_from_head(page, server):
-    # static/boot.js (async in <head>) and app.js (which imports it) must
-    # share one worker, and the progress messages the worker sent before
+    # static/engine-start.js (a classic script at the top of <head>) starts
+    # the worker while the page is still being parsed; boot.js, imported by
+    # app.js, adopts it: one worker, and the progress messages it sent before
     # app.js took it over still reach the page.
-    page.add_init_script("""
-        (() => {
-          window.__workers = 0;
-          const Native = window.Worker;
-          window.Worker = class extends Native {
-            constructor(...args) { super(...args); window.__workers += 1; }
-          };
-        })();
-    """)
+    page.add_init_script(_COUNT_WORKERS)
     headline = _live_couple(page, server)
     assert headline == _couple_headline()
-    assert page.evaluate("() => window.__workers") == 1
+    assert page.evaluate("() => window.__workers") == ["loading"]
     assert page.get_attribute("body", "data-engine-phase") == "ready"
+
+
+def test_without_the_head_script_the_page_starts_its_own_worker(page, context, server):
+    # A host (or an old offline copy) that does not deliver engine-start.js:
+    # boot.js starts the worker itself, once, and the page still answers.
+    context.route("**/static/engine-start.js", lambda route: route.fulfill(status=404, body=""))
+    page.add_init_script(_COUNT_WORKERS)
+    headline = _live_couple(page, server)
+    assert headline == _couple_headline()
+    assert len(page.evaluate("() => window.__workers")) == 1
 
 
 def test_snapshot_start_downloads_each_file_once_and_no_wheel(page, server):
@@ -244,7 +260,7 @@ def test_snapshot_start_downloads_each_file_once_and_no_wheel(page, server):
     assert "python_stdlib.zip" not in names
 
 
-def test_second_visit_uses_the_offline_copys_unpacked_files(page, context, server):
+def test_second_visit_uses_the_offline_copys_unpacked_files(page, context, server, site_dir):
     # Served by the service worker, the fast start compiles the runtime from
     # the plain binary the install unpacked into the cache, and reads the
     # snapshot container unpacked there (checked against raw_sha256): nothing
@@ -258,6 +274,23 @@ def test_second_visit_uses_the_offline_copys_unpacked_files(page, context, serve
         return (await cache.keys()).map((r) => new URL(r.url).pathname.split('/').pop());
     }""")
     assert "pyodide.asm.wasm" in cached and "noblegap-snapshot.container" in cached, cached
+    # each file unpacked at install was checked against the build's sha256
+    # and carries it, so the next visit does not hash it again
+    checked = page.evaluate("""async (header) => {
+        const cache = await caches.open((await caches.keys())[0]);
+        const out = {};
+        for (const request of await cache.keys()) {
+          const value = (await cache.match(request)).headers.get(header);
+          if (value) out[new URL(request.url).pathname.split('/').pop()] = value;
+        }
+        return out;
+    }""", NAMES["checked_header"])
+    info = json.loads((site_dir / "packages" / "noblegap-snapshot.json").read_text())
+    wasm_sha = hashlib.sha256((site_dir / "pyodide" / "pyodide.asm.wasm").read_bytes()).hexdigest()
+    assert checked == {"noblegap-snapshot.container": info["raw_sha256"], "pyodide.asm.wasm": wasm_sha,
+                       "pyodide.asm.mjs": checked.get("pyodide.asm.mjs")}, checked
+    assert checked["pyodide.asm.mjs"] == hashlib.sha256(
+        (site_dir / "pyodide" / "pyodide.asm.mjs").read_bytes()).hexdigest()
     context.set_offline(True)
     _statuses(page)
     page.add_init_script("""

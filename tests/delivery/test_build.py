@@ -92,14 +92,17 @@ def test_service_worker_precaches_every_file(site, manifest):
     # a plain file with a gzip twin is served from the twin, never fetched twice
     unpack = sw_build["unpack"]
     assert set(sw_build["files"]) == set(manifest["files"]) - set(unpack)
-    for plain, packed in unpack.items():
+    for plain, twin in unpack.items():
+        packed = twin["packed"]
         assert packed in sw_build["files"], packed
+        # the service worker keeps the unpacked bytes only if they have this sha256
+        assert hashlib.sha256(gzip.decompress((site / packed).read_bytes())).hexdigest() == twin["sha256"], plain
         if plain in manifest["files"]:
             assert gzip.decompress((site / packed).read_bytes()) == (site / plain).read_bytes(), plain
         else:   # the snapshot, unpacked only into the offline copy
             info = json.loads((site / "packages" / "noblegap-snapshot.json").read_text())
             assert plain == "packages/noblegap-snapshot.container" and packed == f"packages/{info['file']}"
-            assert hashlib.sha256(gzip.decompress((site / packed).read_bytes())).hexdigest() == info["raw_sha256"]
+            assert twin["sha256"] == info["raw_sha256"]
     assert sw_build["cache"] == manifest["cache"]
     assert manifest["content_sha256"][:16] in manifest["cache"]
     for page in ("index.html", "manifest.webmanifest", "pyodide/pyodide.mjs",
