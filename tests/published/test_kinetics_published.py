@@ -35,6 +35,9 @@ Sources (ids in data/sources.csv):
   -0.70 V vs SCE (applied to seawater and to the aluminium alloys by analogy).
 - duan2019_316l_sea: 316L exposed one year in the sea, highest corrosion rate 0.96 µm/y; the
   3000 m rate is 3.2 times the shallow-sea rate (abstract).
+- abs_gn_ships_table3_repo: ABS Guidance Notes on Cathodic Protection of Ships (2017), Section 2
+  Table 3, typical design current densities of bare steel by water velocity: V <= 1 m/s with
+  tidal influence 150-250 mA/m2; 1 < V < 10 m/s 220-350 mA/m2.
 Values marked from memory are never checked here as values.
 """
 
@@ -64,6 +67,23 @@ def test_quiescent_seawater_oxygen_limit_from_design_current_densities(column, p
     row = data.index("electrolytes")["seawater_quiescent"]
     assert row["iL_source_id"] == "dnv_b401_tables_repo"
     assert row[column] == pytest.approx(float(printed), abs=0.0005)
+
+
+@pytest.mark.parametrize("env, column, printed_mA_m2", [
+    # Section 2 Table 3, bare steel: 1 < V < 10 m/s 220-350 mA/m2 (flowing seawater);
+    # V <= 1 m/s with tidal influence 150-250 mA/m2 (applied to brackish estuary water).
+    # The likely value is the middle of the printed band.
+    ("seawater_flowing", "i_L_low_A_m2", "220"), ("seawater_flowing", "i_L_high_A_m2", "350"),
+    ("seawater_flowing", "i_L_A_m2", "285"),
+    ("brackish", "i_L_low_A_m2", "150"), ("brackish", "i_L_high_A_m2", "250"),
+    ("brackish", "i_L_A_m2", "200"),
+])
+def test_moving_and_tidal_water_oxygen_limit_from_ship_design_current_densities(
+        env, column, printed_mA_m2):
+    row = data.index("electrolytes")[env]
+    assert row["iL_source_id"] == "abs_gn_ships_table3_repo"
+    assert row["iL_confidence"] == "handbook-compiled"
+    assert row[column] * 1000 == pytest.approx(float(printed_mA_m2), abs=0.5)
 
 
 @pytest.mark.parametrize("column, printed_mm_yr", [

@@ -11,6 +11,8 @@ Sources (ids in data/sources.csv):
 - llnl_thermo: Debye-Hückel A of water at 0.01, 25, 60, 100 °C (llnl.dat, -dh_a).
 - iso9223_table2_de: ISO 9223:2012 Table 2 (DIN EN edition, page 13) first-year
   rates of zinc, copper and aluminium by corrosivity category.
+- roberge_cepp_atm: Roberge, Corrosion Engineering (2008) Table 9.3, the ISO 9223
+  time-of-wetness categories: T1 <10 hours per year, example indoor with climatic control.
 Values marked from memory are never checked here as values.
 """
 
@@ -223,6 +225,17 @@ def test_aluminium_band_open_above_in_cx():
     assert lo == pytest.approx(10 / 2.6989, rel=1e-9) and hi is None
     assert cell_data.bound_by_band(50.0, (lo, hi)) == 50.0
     assert cell_data.iso_band_um_per_yr("C1", "A95083") == (0.0, 0.0)
+
+
+def test_c1_time_of_wetness_is_the_t1_category():
+    # roberge_cepp_atm, Table 9.3: T1 <0.1 % of the year, <10 hours per year, example
+    # of environments "indoor with climatic control" (the C1 row's interiors); the
+    # band is T1's bounds, likely its middle.
+    row = data.index("atmospheres")["C1"]
+    assert row["tow_source_id"] == "roberge_cepp_atm"
+    assert row["tow_confidence"] == "handbook-compiled"
+    assert (row["tow_low_h_per_yr"], row["tow_h_per_yr"], row["tow_high_h_per_yr"]) == (
+        pytest.approx(0, abs=0.5), pytest.approx(5, abs=0.5), pytest.approx(10, abs=0.5))
 
 
 @pytest.mark.parametrize("env", ["seawater_flowing", "seawater_quiescent"])
