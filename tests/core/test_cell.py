@@ -247,3 +247,29 @@ def test_kinetics_citation_is_as_weak_as_its_weakest_value():
             grades.append(own["eb_confidence"])
         weakest = max(grades, key=data.CONFIDENCE.index)
         assert cell_data.kinetics_cite(row)["confidence"] == weakest, alloy_id
+
+
+@pytest.mark.parametrize("anode", [STEEL, ALUMINIUM, BRONZE])
+@pytest.mark.parametrize("R", [0.0, 3.0, 300.0])
+def test_passive_cathode_numbers_do_not_use_its_anodic_slope_or_breakdown(anode, R):
+    # The cathode is polarised below its free-corrosion potential, where a passive metal
+    # dissolves at its passive current: its anodic slope and breakdown potential enter no
+    # number (so kinetics_cite(row, "cathode") may leave them out).
+    base = cell.solve(el(**anode), el(**STAINLESS), 1e-4, 1e-2, R)
+    for kw in (dict(b_a_V=0.2), dict(b_a_V=0.02), dict(E_b_V=-0.02), dict(E_b_V=None)):
+        other = cell.solve(el(**anode), el(**dict(STAINLESS, **kw)), 1e-4, 1e-2, R)
+        assert other.E_cathode_V < STAINLESS["E_corr_V"]
+        assert other == base, kw
+
+
+def test_cathode_citation_leaves_out_only_what_the_cathode_does_not_use():
+    from noblegap.materials import cell_data
+    passive = cell_data.kinetics_row("S31600")
+    assert passive["mode"] == "passive" and passive["b_a_mV_per_decade"] is not None
+    as_cathode = cell_data.kinetics_cite(passive, role="cathode")["text"]
+    assert "anodic slope: " not in as_cathode and "breakdown potential: " not in as_cathode
+    as_anode = cell_data.kinetics_cite(passive, role="anode")["text"]
+    assert "anodic slope: " in as_anode and "breakdown potential: " in as_anode
+    active = cell_data.kinetics_row("C95800")
+    assert active["mode"] == "active"
+    assert "anodic slope: " in cell_data.kinetics_cite(active, role="cathode")["text"]

@@ -14,7 +14,8 @@ Sources (ids in data/sources.csv):
   low-latitude surface water is at 26-30 °C. physics_factbook_ocean_temp: the average
   ocean surface temperature is about 17 °C.
 - defstan_01_2_seawater_table: one-year general corrosion rates in seawater (Table 7):
-  gunmetal G1 0.025, cast nickel aluminium bronze AB2 0.06, high-tensile brass 0.18 mm/year.
+  gunmetal G1 0.025, cast nickel aluminium bronze AB2 0.06, high-tensile brass 0.18 mm/year;
+  phosphorus deoxidised copper C106 0.04 mm/year.
 - mil_hdbk_1004_10: aluminium is protected by a 100 mV negative polarization shift and
   should not be driven more negative than -1.20 V against copper/copper sulfate.
 - abs_gn_cp_ships_repo: ABS Guidance Notes on Cathodic Protection of Ships (2017), Section 2
@@ -23,8 +24,8 @@ Sources (ids in data/sources.csv):
 - jcorr2001_cu_carbonate_chloride: anodic Tafel slope of copper in weak alkaline carbonate
   solution containing chloride, region I, 60 mV/decade (with nishikata1990_cu_carbonate_chloride,
   60 mV/decade in alkaline solution); applied to copper, copper alloys and copper-nickel.
-- jsms1981_ss_pitting_stress: pitting initiation potential of SUS 316 in 3 % NaCl without stress,
-  about +0.20 V vs SCE (applied to seawater by analogy).
+- jsms1981_ss_pitting_stress: pitting initiation potential in 3 % NaCl without stress, SUS 316
+  about +0.20 V and SUS 430 about 0.00 V vs SCE (applied to seawater by analogy).
 - baugh1979_zinc_nacl: zinc in molar NaCl at pH 3.8, anodic slope approx. 25 mV per decade
   (applied to seawater by analogy).
 - venice_system_web: Venice system (1959) salinity classes, mesohaline 5 to 18.
@@ -152,6 +153,19 @@ def test_copper_alloy_own_rate_from_the_one_year_raft_table(column, printed_mm_y
     assert cr == pytest.approx(float(printed_mm_yr), rel=0.03)
 
 
+@pytest.mark.parametrize("column", ["i_corr_low_A_m2", "i_corr_A_m2", "i_corr_high_A_m2"])
+def test_copper_own_rate_from_the_one_year_raft_table(column):
+    # Table 7 general corrosion, mm/year: phosphorus deoxidised copper C106 0.04, the
+    # table's only unalloyed copper (one rate, so low, likely and high alike).
+    row = cell_data.kinetics_row("copper")
+    assert row["id"] == "copper"
+    assert row["source_id"] == "defstan_01_2_seawater_table"
+    assert row["confidence"] == "handbook-compiled"
+    cu = data.index("alloys")["copper"]
+    cr = 3.27e-3 * (row[column] / 0.01) * cu["equivalent_weight_g_mol"] / cu["density_g_cm3"]
+    assert cr == pytest.approx(0.04, rel=0.03)
+
+
 @pytest.mark.parametrize("alloy, printed", [
     # Section 2 Table 1, minimum negative potential vs Ag/AgCl/seawater: austenitic stainless
     # steel, PRE < 40, -0.60 V; copper alloys -0.45 to -0.60 V (the less negative end applied).
@@ -185,6 +199,17 @@ def test_316_breakdown_potential_3pct_nacl():
     assert row["eb_confidence"] == "handbook-compiled"
     assert row["E_b_V_SCE"] == pytest.approx(0.20, abs=0.005)
     assert "breakdown potential: " in cell_data.kinetics_cite(row)["text"]
+
+
+@pytest.mark.parametrize("alloy_id", ["S43000", "S41000"])
+def test_ferritic_breakdown_potential_3pct_nacl(alloy_id):
+    # Abstract, result (1): SUS 430 about 0.00 V (vs. S.C.E.) under no stress; the row
+    # of 430 also holds the 13 % Cr grades.
+    row = cell_data.kinetics_row(alloy_id)
+    assert row["id"] == "stainless_ferritic"
+    assert row["eb_source_id"] == "jsms1981_ss_pitting_stress"
+    assert row["eb_confidence"] == "handbook-compiled"
+    assert row["E_b_V_SCE"] == pytest.approx(0.00, abs=0.005)
 
 
 def test_zinc_anodic_slope_molar_nacl():

@@ -409,7 +409,8 @@ def common_rows(rep, a, conductivity_entered):
             cell_data.kinetics_cite(k_an), key="anode_kinetics")
     rep.row("Cathode kinetics", f"{k_ca['mode']}, own current "
             f"{units.fmt(k_ca['i_corr_A_m2'], 'A/m²', 2)}, b_c "
-            f"{k_ca['b_c_mV_per_decade']:g} mV/decade", cell_data.kinetics_cite(k_ca),
+            f"{k_ca['b_c_mV_per_decade']:g} mV/decade",
+            cell_data.kinetics_cite(k_ca, role="cathode"),
             key="cathode_kinetics")
     rep.row("Electrolyte resistance", units.fmt(lk["R_ohm"], "Ω", 3),
             "computed: disks in an insulating plane R = ρ/(4r) (Newman 1966)"

@@ -139,7 +139,7 @@ def shared_kinetics():
                            f"{SHARED_MATCH!r}")
 
 
-def kinetics_cite(row):
+def kinetics_cite(row, role=None):
     """One citation for every value of a kinetics row the model uses.
 
     ``row`` is a :func:`kinetics_row` result. The own current density cites
@@ -149,12 +149,19 @@ def kinetics_cite(row):
     exchange current the ``shared`` row where the metal's row leaves them blank.
     The text joins the three; ``confidence`` is the weakest of them, so that a
     headline never shows a firmer grade than its least certain input.
+
+    ``role="cathode"``: the cathode of a couple is polarised below its
+    free-corrosion potential, where a passive metal dissolves at its passive
+    current (:class:`noblegap.methods.cell.Electrode`); its anodic slope and
+    breakdown potential then enter no number and are not cited. An active
+    cathode's dissolution still follows its anodic slope, which stays cited.
     """
     own = data.index("cell_kinetics")[row["id"]]
     parts = [("", _kinetics_part(own))]
-    if row["b_a_mV_per_decade"] is not None:
+    flat = role == "cathode" and row["mode"] == "passive"
+    if row["b_a_mV_per_decade"] is not None and not flat:
         parts.append(("anodic slope: ", _kinetics_part(own, "ba_")))
-    if row["E_b_V_SCE"] is not None:
+    if row["E_b_V_SCE"] is not None and not flat:
         parts.append(("breakdown potential: ", _kinetics_part(own, "eb_")))
     if any(own[c] is None for c in SHARED_COLUMNS):
         parts.append(("shared by every metal: ", _kinetics_part(shared_kinetics())))

@@ -481,7 +481,8 @@ def _assess(first_id, second_id, env_id, layout_of, *, conductivity_S_m=None,
     # first-year band in an atmosphere; conductivity and oxygen limit in immersion
     env_confs = [c["confidence"] for c in cell_data.cite_env(env_id, an_id).values()]
     from_memory = env.get("confidence") == "from-memory" or "from-memory" in env_confs or \
-        any(cell_data.kinetics_cite(k)["confidence"] == "from-memory" for k in (k_an, k_ca)) or \
+        any(cell_data.kinetics_cite(k, role)["confidence"] == "from-memory"
+            for k, role in ((k_an, "anode"), (k_ca, "cathode"))) or \
         any(alloys.alloy(a)["confidence"] == "from-memory" for a in (an_id, ca_id))
     ra, rc = rule["range_anode"], rule["range_cathode"]
     wanted = cases
