@@ -11,7 +11,8 @@ Sources (ids in data/sources.csv):
 - llnl_thermo: Debye-Hückel A of water at 0.01, 25, 60, 100 °C (llnl.dat, -dh_a).
 - iso9223_table2_de: ISO 9223:2012 Table 2 (DIN EN edition, page 13) first-year
   rates of zinc, copper and aluminium by corrosivity category.
-- alloy600_density_repo, c2700_brass_web: alloy 600 and 65/35 yellow brass densities.
+- alloy600_density_repo, c2700_brass_web, solder_alloys_web: alloy 600, 65/35 yellow
+  brass and 50/50 tin-lead solder densities.
 - astm_b574_web: ASTM B574 Table 1 composition of N10276 (C-276) for its G102 EW.
 - anodic_index_web: the gold / gold-platinum alloy row of the anodic-index table.
 Values marked from memory are never checked here as values.
@@ -344,8 +345,11 @@ def test_g102_equivalent_weight_of_ferrous_alloys(alloy, source, parts):
     # (density 0.306 lb/cu in at 68 F).
     ("N06600", "alloy600_density_repo", "8.47"),
     ("C27000", "c2700_brass_web", "8.47"),
+    # solder_alloys_web: Sn50Pb50 (alloy #116), density 8.87 g/cm3 - the 50/50 solder
+    # the galvanic-series row names.
+    ("lead_tin_solder", "solder_alloys_web", "8.87"),
 ])
-def test_nickel_and_brass_density_from_their_sheets(alloy, source, printed):
+def test_nickel_brass_and_solder_density_from_their_sheets(alloy, source, printed):
     row = ALLOYS[alloy]
     assert row["density_source_id"] == source
     assert row["density_confidence"] == "handbook-compiled"
