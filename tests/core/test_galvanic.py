@@ -106,6 +106,26 @@ def test_pair_stainless_on_aluminium():
     assert set(res["sources"]) == {"alloy_a", "alloy_b", "allowed"}
 
 
+def test_pair_anodic_index_cross_check_only_from_sourced_indexes():
+    # Both indexes sourced (copper 0.35, 316 0.50 V): the difference is a row.
+    res = run("pair", alloy_a="copper", alloy_b="S31600", environment="atmosphere_normal")
+    assert res["anodic_index_difference_V"] == pytest.approx(0.15)
+    labels = [r["label"] for r in res["display"]["rows"]]
+    assert "Anodic-index difference (cross-check)" in labels
+    # 5083 has no sourced index: no number, and a note that says why.
+    res = run("pair", alloy_a="316 stainless", alloy_b="aluminium 5083",
+              environment="marine_splash")
+    assert res["anodic_index_difference_V"] is None
+    labels = [r["label"] for r in res["display"]["rows"]]
+    assert "Anodic-index difference (cross-check)" not in labels
+    notes = [n for n in res["display"]["notes"] if "anodic-index cross-check" in n]
+    assert len(notes) == 1 and "5083" in notes[0]
+    # Neither side has one (titanium, 5083): nothing is said about the index.
+    res = run("pair", alloy_a="titanium", alloy_b="aluminium 5083",
+              environment="marine_splash")
+    assert not [n for n in res["display"]["notes"] if "anodic-index" in n]
+
+
 def test_pair_overlap():
     # 304 passive (−0.04..−0.10) and 316 passive (0.00..−0.10) overlap
     res = run("pair", alloy_a="S30400", alloy_b="S31600", environment="seawater_flowing")

@@ -13,6 +13,10 @@ Sources (ids in data/sources.csv):
   rates of zinc, copper and aluminium by corrosivity category.
 - roberge_cepp_atm: Roberge, Corrosion Engineering (2008) Table 9.3, the ISO 9223
   time-of-wetness categories: T1 <10 hours per year, example indoor with climatic control.
+- alloy600_density_repo, c2700_brass_web, solder_alloys_web: alloy 600, 65/35 yellow
+  brass and 50/50 tin-lead solder densities.
+- astm_b574_web: ASTM B574 Table 1 composition of N10276 (C-276) for its G102 EW.
+- anodic_index_web: the gold / gold-platinum alloy row of the anodic-index table.
 Values marked from memory are never checked here as values.
 """
 
@@ -345,3 +349,58 @@ def test_g102_equivalent_weight_of_ferrous_alloys(alloy, source, parts):
     row = ALLOYS[alloy]
     assert row["ew_source_id"] == source
     assert row["equivalent_weight_g_mol"] == pytest.approx(ew, abs=0.005)
+
+
+@pytest.mark.parametrize("alloy, source, printed", [
+    # alloy600_density_repo: ARMI's alloy 600 material class, refDens = 8.47 g/cc from
+    # the producer data sheet (aeether.com tabulates 0.306 lb/in3, 8.47 g/cm3 too);
+    # c2700_brass_web: JIS C2700 65/35 yellow brass, specific gravity 8.47
+    # (density 0.306 lb/cu in at 68 F).
+    ("N06600", "alloy600_density_repo", "8.47"),
+    ("C27000", "c2700_brass_web", "8.47"),
+    # solder_alloys_web: Sn50Pb50 (alloy #116), density 8.87 g/cm3 - the 50/50 solder
+    # the galvanic-series row names.
+    ("lead_tin_solder", "solder_alloys_web", "8.87"),
+])
+def test_nickel_brass_and_solder_density_from_their_sheets(alloy, source, printed):
+    row = ALLOYS[alloy]
+    assert row["density_source_id"] == source
+    assert row["density_confidence"] == "handbook-compiled"
+    assert row["density_g_cm3"] == pytest.approx(float(printed), abs=_half(printed))
+
+
+def test_c2700_density_in_lb_per_cubic_inch_agrees_with_its_specific_gravity():
+    # c2700_brass_web prints both: 0.306 lb/cu in and specific gravity 8.47.
+    assert 0.306 * LB_IN3_TO_G_CM3 == pytest.approx(8.47, abs=0.0005 * LB_IN3_TO_G_CM3)
+
+
+def test_g102_equivalent_weight_of_c276_from_astm_b574():
+    # astm_b574_web (ASTM B574 Table 1, N10276): Mo 15.0-17.0, Cr 14.5-16.5,
+    # Fe 4.0-7.0, W 3.0-4.5, Ni remainder; Co, Mn, V, C, Si, P, S only as maxima.
+    # Mid-points of the ranges, nickel the balance; valences Ni 2, Mo 3, Cr 3, Fe 2,
+    # W 6 (as the row states). CIAAW 2021 atomic weights; W 183.84.
+    w = {"Ni": 58.6934, "Mo": 95.95, "Cr": 51.9961, "Fe": 55.845, "W": 183.84}
+    parts = [("Mo", 16.0, 3), ("Cr", 15.5, 3), ("Fe", 5.5, 2), ("W", 3.75, 6)]
+    parts.append(("Ni", 100 - sum(f for _, f, _ in parts), 2))
+    ew = 1.0 / sum(f / 100 * n / w[e] for e, f, n in parts)
+    row = ALLOYS["N10276"]
+    assert row["ew_source_id"] == "astm_b574_web"
+    assert row["equivalent_weight_g_mol"] == pytest.approx(ew, abs=0.005)
+
+
+def test_platinum_anodic_index_is_the_gold_row():
+    # anodic_index_web: "Gold, solid and plated, Gold-platinum alloy" -0.00 V, the most
+    # cathodic row of the table.
+    row = ALLOYS["platinum"]
+    assert row["ai_source_id"] == "anodic_index_web"
+    assert row["anodic_index_V"] == pytest.approx(0.00, abs=0.005)
+
+
+def test_no_anodic_index_without_a_source():
+    # The copies of the anodic-index table read stop at the 2000-series aluminium row
+    # (0.75 V); rows below it (steels, aluminium alloys, cadmium, zinc, magnesium)
+    # carry no index rather than a recalled one.
+    for row in ALLOYS.values():
+        if row.get("anodic_index_V") is not None:
+            assert row["ai_source_id"] == "anodic_index_web", row["id"]
+            assert row["ai_confidence"] != "from-memory", row["id"]

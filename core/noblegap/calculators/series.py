@@ -387,6 +387,12 @@ def compute_pair(alloy_a, alloy_b, environment, state_a=None, state_b=None):
         ai_diff = abs(ai_a - ai_b)
         rep.row("Anodic-index difference (cross-check)", units.fmt(ai_diff, "V", 2),
                 alloys.cite_anodic_index(ra))
+    elif ai_a is not None or ai_b is not None:
+        # One side has a sourced index and the other none: say so rather than
+        # dropping the cross-check without a word.
+        missing = ra if ai_a is None else rb
+        rep.note(f"No anodic-index cross-check: {alloys._label(missing)} has no "
+                 "sourced anodic index in the tables.")
     rows = [r for r in ordered_series(environment) if r["id"] in (ra["id"], rb["id"])]
     if c["anode"] not in (NONE, OVERLAP):
         centre, partner = c["cathode"], c["anode"]
