@@ -247,7 +247,8 @@ def test_from_memory_values_do_not_grow():
     # alloyd: -15 (alloy 600 and C27000 densities, C-276 EW from ASTM B574, platinum's
     # anodic index; 11 unsourced anodic indexes removed, the cross-check says so).
     # alloyd: -1 with the 50/50 solder density from a solder-alloy table.
-    assert len(_from_memory_values()) <= 120
+    # kinA: -3 (austenitic cast iron's own current from the one-year raft table).
+    assert len(_from_memory_values()) <= 117
 
 
 def test_shared_cathodic_constants_are_stated_once():

@@ -16,6 +16,7 @@ Sources (ids in data/sources.csv):
 - defstan_01_2_seawater_table: one-year general corrosion rates in seawater (Table 7):
   gunmetal G1 0.025, cast nickel aluminium bronze AB2 0.06, high-tensile brass 0.18 mm/year;
   phosphorus deoxidised copper C106 0.04 mm/year.
+  austenitic cast iron (AUS 202) 0.075 mm/year.
 - mil_hdbk_1004_10: aluminium is protected by a 100 mV negative polarization shift and
   should not be driven more negative than -1.20 V against copper/copper sulfate.
 - abs_gn_cp_ships_repo: ABS Guidance Notes on Cathodic Protection of Ships (2017), Section 2
@@ -275,3 +276,15 @@ def test_316_own_current_one_year_sea_exposure(column, printed_um_yr):
     alloy = data.index("alloys")["S31600"]
     cr_mm = 3.27e-3 * (row[column] / 0.01) * alloy["equivalent_weight_g_mol"] / alloy["density_g_cm3"]
     assert cr_mm * 1000 == pytest.approx(printed_um_yr, rel=0.02)
+
+
+@pytest.mark.parametrize("column", ["i_corr_low_A_m2", "i_corr_A_m2", "i_corr_high_A_m2"])
+def test_austenitic_cast_iron_own_rate_from_the_one_year_raft_table(column):
+    # Table 7 general corrosion, cast alloys: austenitic cast iron (AUS 202) 0.075 mm/year,
+    # the one rate printed (so the three cases are equal).
+    row = next(r for r in data.table("cell_kinetics") if r["id"] == "austenitic_cast_iron")
+    assert row["source_id"] == "defstan_01_2_seawater_table"
+    assert row["confidence"] == "handbook-compiled"
+    iron = data.index("alloys")["austenitic_cast_iron"]
+    cr = 3.27e-3 * (row[column] / 0.01) * iron["equivalent_weight_g_mol"] / iron["density_g_cm3"]
+    assert cr == pytest.approx(0.075, rel=0.03)
