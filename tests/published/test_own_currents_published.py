@@ -1,0 +1,39 @@
+"""Own (uncoupled) corrosion currents in seawater against the rates their sources print.
+
+Each current is checked back to the printed rate by Faraday's law as ASTM G102 writes
+it, CR (mm/y) = K · i (µA/cm²) · EW / ρ with K = 3.27e-3, using the EW and density
+of the alloy the row's locator names.
+
+Sources (ids in data/sources.csv):
+- efc_al_seawater_chapter: 5000-series aluminium alloys in stagnant and low-flow
+  seawater, uniform corrosion rate below 1 µm/y (a ceiling, taken as low and likely).
+- duan2022_5a06_deepsea: Al-Mg alloy 5A06, one year in the deep sea, highest average
+  corrosion rate 13.8 µm/a (1200 m), taken as aluminium's high case.
+Values marked from memory are never checked here as values.
+"""
+
+import pytest
+
+from noblegap.materials import cell_data, data
+
+K_MM_G_PER_UA_CM_YR = 3.27e-3
+
+
+def _rate_mm_per_yr(i_A_m2, alloy_id):
+    alloy = data.index("alloys")[alloy_id]
+    i_uA_cm2 = i_A_m2 * 100.0          # 1 A/m² = 100 µA/cm²
+    return K_MM_G_PER_UA_CM_YR * i_uA_cm2 * alloy["equivalent_weight_g_mol"] / alloy["density_g_cm3"]
+
+
+@pytest.mark.parametrize("column, printed_um_yr", [
+    # Chapter summary: uniform corrosion rate lies below 1 µm/y (low and likely);
+    # Duan et al. 2022 abstract: highest value 13.8 µm a-1 (high).
+    ("i_corr_low_A_m2", "1"), ("i_corr_A_m2", "1"), ("i_corr_high_A_m2", "13.8"),
+])
+def test_aluminium_own_current_from_printed_seawater_rates(column, printed_um_yr):
+    row = cell_data.kinetics_row("A95083")
+    assert row["id"] == "aluminium"
+    assert row["source_id"] == "efc_al_seawater_chapter"
+    assert row["confidence"] == "handbook-compiled"
+    rate_um = 1000 * _rate_mm_per_yr(row[column], "A95083")
+    assert rate_um == pytest.approx(float(printed_um_yr), rel=0.03)
