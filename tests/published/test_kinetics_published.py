@@ -29,6 +29,8 @@ Sources (ids in data/sources.csv):
   about +0.20 V and SUS 430 about 0.00 V vs SCE (applied to seawater by analogy).
 - baugh1979_zinc_nacl: zinc in molar NaCl at pH 3.8, anodic slope approx. 25 mV per decade
   (applied to seawater by analogy).
+- elaal2003_ni_hcl: nickel in hydrochloric acid solutions, anodic Tafel slope 120 ± 10 mV per
+  decade (applied to seawater by analogy).
 - venice_system_web: Venice system (1959) salinity classes, mesohaline 5 to 18.
 - usgs_stream_temps_web: stream temperatures between 0 and 20 °C in winter, peaking around 30 °C.
 - corrosion_doctors_cp_current: bare steel in fresh water at zero or low velocities needs 22 to
@@ -288,3 +290,12 @@ def test_austenitic_cast_iron_own_rate_from_the_one_year_raft_table(column):
     iron = data.index("alloys")["austenitic_cast_iron"]
     cr = 3.27e-3 * (row[column] / 0.01) * iron["equivalent_weight_g_mol"] / iron["density_g_cm3"]
     assert cr == pytest.approx(0.075, rel=0.03)
+
+
+def test_nickel_anodic_slope_acid_chloride():
+    # Abstract: an anodic Tafel slope equal to 120 +/- 10 mV per decade, nickel dissolving
+    # galvanostatically in hydrochloric acid solutions.
+    row = data.index("cell_kinetics")["nickel"]
+    assert row["ba_source_id"] == "elaal2003_ni_hcl"
+    assert row["ba_confidence"] == "handbook-compiled"
+    assert row["b_a_mV_per_decade"] == pytest.approx(120, abs=0.5)
