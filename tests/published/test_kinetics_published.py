@@ -47,6 +47,7 @@ Values marked from memory are never checked here as values.
 
 import pytest
 
+from g102 import rate_mm_per_yr
 from noblegap.materials import anode_data, cell_data, data, references
 
 
@@ -100,8 +101,7 @@ def test_steel_own_rate_from_the_printed_seawater_rates(column, printed_mm_yr):
     # row's EW and density. The table stores two significant figures.
     row = next(r for r in data.table("cell_kinetics") if r["id"] == "steel")
     assert row["source_id"] == "rfmaterials_steel_seawater"
-    steel = data.index("alloys")["carbon_steel"]
-    cr = 3.27e-3 * (row[column] / 0.01) * steel["equivalent_weight_g_mol"] / steel["density_g_cm3"]
+    cr = rate_mm_per_yr(row[column], "carbon_steel")
     assert cr == pytest.approx(float(printed_mm_yr), rel=0.02)
 
 
@@ -112,8 +112,7 @@ def test_steel_own_rate_from_the_printed_seawater_rates(column, printed_mm_yr):
 def test_zinc_own_rate_from_the_printed_sea_water_band(column, printed_um_yr):
     row = next(r for r in data.table("cell_kinetics") if r["id"] == "zinc")
     assert row["source_id"] == "gaa_zinc_waters"
-    zinc = data.index("alloys")["zinc"]
-    cr_um = 1000 * 3.27e-3 * (row[column] / 0.01) * zinc["equivalent_weight_g_mol"] / zinc["density_g_cm3"]
+    cr_um = 1000 * rate_mm_per_yr(row[column], "zinc")
     assert cr_um == pytest.approx(float(printed_um_yr), rel=0.03)
 
 
@@ -151,8 +150,7 @@ def test_aluminium_protection_criterion_mil_hdbk_1004_10():
 def test_copper_alloy_own_rate_from_the_one_year_raft_table(column, printed_mm_yr):
     row = next(r for r in data.table("cell_kinetics") if r["id"] == "copper_alloy")
     assert row["source_id"] == "defstan_01_2_seawater_table"
-    nab = data.index("alloys")["C95800"]
-    cr = 3.27e-3 * (row[column] / 0.01) * nab["equivalent_weight_g_mol"] / nab["density_g_cm3"]
+    cr = rate_mm_per_yr(row[column], "C95800")
     assert cr == pytest.approx(float(printed_mm_yr), rel=0.03)
 
 
@@ -164,8 +162,7 @@ def test_copper_own_rate_from_the_one_year_raft_table(column):
     assert row["id"] == "copper"
     assert row["source_id"] == "defstan_01_2_seawater_table"
     assert row["confidence"] == "handbook-compiled"
-    cu = data.index("alloys")["copper"]
-    cr = 3.27e-3 * (row[column] / 0.01) * cu["equivalent_weight_g_mol"] / cu["density_g_cm3"]
+    cr = rate_mm_per_yr(row[column], "copper")
     assert cr == pytest.approx(0.04, rel=0.03)
 
 
@@ -275,8 +272,7 @@ def test_316_own_current_one_year_sea_exposure(column, printed_um_yr):
     assert row["id"] == "stainless_molybdenum"
     assert row["source_id"] == "duan2019_316l_sea"
     assert row["confidence"] == "handbook-compiled"
-    alloy = data.index("alloys")["S31600"]
-    cr_mm = 3.27e-3 * (row[column] / 0.01) * alloy["equivalent_weight_g_mol"] / alloy["density_g_cm3"]
+    cr_mm = rate_mm_per_yr(row[column], "S31600")
     assert cr_mm * 1000 == pytest.approx(printed_um_yr, rel=0.02)
 
 
@@ -287,8 +283,7 @@ def test_austenitic_cast_iron_own_rate_from_the_one_year_raft_table(column):
     row = next(r for r in data.table("cell_kinetics") if r["id"] == "austenitic_cast_iron")
     assert row["source_id"] == "defstan_01_2_seawater_table"
     assert row["confidence"] == "handbook-compiled"
-    iron = data.index("alloys")["austenitic_cast_iron"]
-    cr = 3.27e-3 * (row[column] / 0.01) * iron["equivalent_weight_g_mol"] / iron["density_g_cm3"]
+    cr = rate_mm_per_yr(row[column], "austenitic_cast_iron")
     assert cr == pytest.approx(0.075, rel=0.03)
 
 

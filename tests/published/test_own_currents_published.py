@@ -1,7 +1,7 @@
 """Own (uncoupled) corrosion currents in seawater against the rates their sources print.
 
 Each current is checked back to the printed rate by Faraday's law as ASTM G102 writes
-it, CR (mm/y) = K · i (µA/cm²) · EW / ρ with K = 3.27e-3, using the EW and density
+it (g102.py), using the EW and density
 of the alloy the row's locator names.
 
 Sources (ids in data/sources.csv):
@@ -16,15 +16,8 @@ Values marked from memory are never checked here as values.
 
 import pytest
 
-from noblegap.materials import cell_data, data
-
-K_MM_G_PER_UA_CM_YR = 3.27e-3
-
-
-def _rate_mm_per_yr(i_A_m2, alloy_id):
-    alloy = data.index("alloys")[alloy_id]
-    i_uA_cm2 = i_A_m2 * 100.0          # 1 A/m² = 100 µA/cm²
-    return K_MM_G_PER_UA_CM_YR * i_uA_cm2 * alloy["equivalent_weight_g_mol"] / alloy["density_g_cm3"]
+from g102 import rate_mm_per_yr
+from noblegap.materials import cell_data
 
 
 @pytest.mark.parametrize("column, printed_um_yr", [
@@ -37,7 +30,7 @@ def test_aluminium_own_current_from_printed_seawater_rates(column, printed_um_yr
     assert row["id"] == "aluminium"
     assert row["source_id"] == "efc_al_seawater_chapter"
     assert row["confidence"] == "handbook-compiled"
-    rate_um = 1000 * _rate_mm_per_yr(row[column], "A95083")
+    rate_um = 1000 * rate_mm_per_yr(row[column], "A95083")
     assert rate_um == pytest.approx(float(printed_um_yr), rel=0.03)
 
 
@@ -51,4 +44,4 @@ def test_magnesium_own_current_from_printed_chloride_rates(column, printed_mm_yr
     assert row["id"] == "magnesium"
     assert row["source_id"] == "atrens2022_mg_progress"
     assert row["confidence"] == "handbook-compiled"
-    assert _rate_mm_per_yr(row[column], "magnesium") == pytest.approx(float(printed_mm_yr), rel=0.03)
+    assert rate_mm_per_yr(row[column], "magnesium") == pytest.approx(float(printed_mm_yr), rel=0.03)

@@ -23,6 +23,7 @@ Values marked from memory are never checked here as values.
 import pytest
 
 from noblegap import api
+from g102 import rate_mm_per_yr
 from noblegap.materials import data
 from noblegap.materials import references as electrodes
 from noblegap.methods import nernst
@@ -305,12 +306,11 @@ def test_g102_equivalent_weight_from_named_compositions(alloy, source, parts):
     ("i_corr_low_A_m2", "0.002"), ("i_corr_A_m2", "0.012"), ("i_corr_high_A_m2", "0.02"),
 ])
 def test_copper_nickel_own_rate_from_the_cda_rates(column, printed_mm_yr):
-    # ASTM G102: CR = K i EW / rho, K = 3.27e-3 mm g/(uA cm yr); the 90-10 row's EW
+    # ASTM G102 (g102.py) with the 90-10 row's EW
     # and density. The table stores two significant figures.
     row = next(r for r in data.table("cell_kinetics") if r["id"] == "copper_nickel")
     assert row["source_id"] == "cda_cuni_rates_web"
-    cu_ni = ALLOYS["C70600"]
-    cr = 3.27e-3 * (row[column] / 0.01) * cu_ni["equivalent_weight_g_mol"] / cu_ni["density_g_cm3"]
+    cr = rate_mm_per_yr(row[column], "C70600")
     assert cr == pytest.approx(float(printed_mm_yr), rel=0.05)
 
 
